@@ -1,0 +1,11 @@
+/**
+ * @conebook/aquifer: the public surface of the aquifer-analysis library.
+ * Pure numerics: no DOM, no Node APIs. Each area re-exports its own public names.
+ */
+export * from "./units/index.js";
+export * from "./special/index.js";
+export * from "./numerics/index.js";
+export * from "./wells/index.js";
+export * from "./models/index.js";
+export * from "./data/index.js";
+export * from "./fit/index.js";

@@ -1,0 +1,10 @@
+import { defineConfig } from "vitest/config";
+
+export default defineConfig({
+  test: {
+    include: ["packages/*/test/**/*.test.ts", "tests/**/*.test.ts"],
+    exclude: ["**/node_modules/**", "tests/bench/**"],
+    pool: "forks",
+    testTimeout: 30000,
+  },
+});
