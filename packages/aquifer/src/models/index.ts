@@ -1,0 +1,38 @@
+/**
+ * Drawdown models: the contract (model.ts), the published solutions, their helpers and the registry.
+ */
+export type { DrawdownModel, ModelDescriptor, ObservationGeometry, ParameterDescriptor } from "./model.js";
+export { ModelInputError, UnknownModelError } from "./errors.js";
+export { storativityParameter, transmissivityParameter } from "./parameters.js";
+export { theisDrawdown, theisModel, theisTypeCurve, type TheisTypeCurve } from "./theis.js";
+export {
+  COOPER_JACOB_DEFAULT_U_MAX,
+  cooperJacobLine,
+  cooperJacobModel,
+  cooperJacobValidity,
+  type CooperJacobExcludedPoint,
+  type CooperJacobExclusionReason,
+  type CooperJacobLineOptions,
+  type CooperJacobLineResult,
+} from "./cooper-jacob.js";
+export {
+  hantushJacobDrawdown,
+  hantushJacobModel,
+  hantushJacobSteadyDrawdown,
+  hantushTypeCurves,
+  leakageFactorFromLeakance,
+  leakageFactorParameter,
+  leakanceFromLeakageFactor,
+  type HantushTypeCurve,
+  type HantushTypeCurveFamily,
+} from "./hantush-jacob.js";
+export {
+  radiusOfInfluenceParameter,
+  thiemDrawdown,
+  thiemModel,
+  thiemRadiusOfInfluence,
+  thiemTwoWells,
+} from "./thiem.js";
+export { theisMatchPoint, type TheisMatchPointInput, type TheisMatchPointResult } from "./match-point.js";
+export { getModel, isModelId, modelIds, models, type ModelId } from "./registry.js";
+export { startingValues, type StartingValues } from "./starting-values.js";

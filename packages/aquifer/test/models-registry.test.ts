@@ -1,0 +1,100 @@
+import { describe, expect, it } from "vitest";
+import {
+  UnknownModelError,
+  cooperJacobModel,
+  getModel,
+  hantushJacobModel,
+  modelIds,
+  models,
+  startingValues,
+  theisModel,
+  thiemModel,
+  type DrawdownModel,
+} from "../src/models/index.js";
+
+const UNITS = new Set(["m2/d", "1", "m", "1/d"]);
+
+describe("model registry and descriptors", () => {
+  it("registers the four models by id", () => {
+    expect([...modelIds].sort()).toEqual(["cooper-jacob", "hantush-jacob", "theis", "thiem"]);
+    expect(getModel("theis")).toBe(theisModel);
+    expect(getModel("cooper-jacob")).toBe(cooperJacobModel);
+    expect(getModel("hantush-jacob")).toBe(hantushJacobModel);
+    expect(getModel("thiem")).toBe(thiemModel);
+    for (const id of modelIds) expect(models[id].id).toBe(id);
+  });
+
+  it("names the known ids when asked for an unknown one", () => {
+    expect(() => getModel("theiss")).toThrow(UnknownModelError);
+    expect(() => getModel("theiss")).toThrow(
+      'Unknown model "theiss". Known models: theis, cooper-jacob, hantush-jacob, thiem.',
+    );
+    expect(() => getModel("toString")).toThrow(UnknownModelError);
+  });
+
+  it.each(modelIds)("describes %s with author, year, source, assumptions, validity, cautions and parameters", (id) => {
+    const m: DrawdownModel = models[id];
+    const year = /\((\d{4})\)/.exec(m.name)?.[1];
+    expect(year, m.name).toBeDefined();
+    expect(m.source).toContain(`(${year})`);
+    expect(m.assumptions.length).toBeGreaterThan(0);
+    expect(m.validity.length).toBeGreaterThan(0);
+    expect(m.cautions.length).toBeGreaterThan(0);
+    for (const p of m.parameters) {
+      expect(UNITS.has(p.unit), `${id}.${p.name} unit ${p.unit}`).toBe(true);
+      expect(p.bounds[0]).toBeLessThan(p.bounds[1]);
+      if (p.positive) expect(p.bounds[0]).toBeGreaterThan(0);
+      expect(p.description.length).toBeGreaterThan(10);
+    }
+  });
+
+  it.each(modelIds)("gives %s a Jacobian with one column per parameter and one row per time", (id) => {
+    const m = models[id];
+    const p = m.parameters.map((d) => Math.sqrt(d.bounds[0] * d.bounds[1]));
+    const J = m.jacobian!(p, { r: 10, Q: 100 }, [0.5, 1, 2]);
+    expect(J.length).toBe(m.parameters.length);
+    for (const col of J) expect(col.length).toBe(3);
+  });
+});
+
+describe("starting values from the Cooper-Jacob line", () => {
+  // Invented scenario: observation well 40 m from a well pumping 1200 m3/d for 2 days.
+  const g = { r: 40, Q: 1200 };
+  const t = Array.from({ length: 41 }, (_, i) => Math.pow(10, -3 + (3.3 * i) / 40));
+
+  it("starts a Theis fit within 1 % of T and 5 % of S on noise-free Theis drawdown", () => {
+    const s = theisModel.drawdown([300, 1e-4], g, t);
+    const start = startingValues("theis", g, t, s);
+    expect(Math.abs(start.values[0]! / 300 - 1)).toBeLessThan(0.01);
+    expect(Math.abs(start.values[1]! / 1e-4 - 1)).toBeLessThan(0.05);
+    expect(start.notes[0]).toMatch(/Cooper-Jacob line through \d+ late points/);
+  });
+
+  it("starts a leaky fit within 30 % of T, S and B by a type-curve search on noise-free leaky drawdown", () => {
+    // r/B = 0.1; the final search grid moves in factors of 1.12 in u and r/B.
+    const truth = [300, 1e-4, 400];
+    const s = hantushJacobModel.drawdown(truth, g, t);
+    const start = startingValues(hantushJacobModel, g, t, s);
+    expect(start.values.length).toBe(3);
+    truth.forEach((v, k) => {
+      expect(start.values[k]! / v, `parameter ${k}`).toBeGreaterThan(1 / 1.3);
+      expect(start.values[k]! / v, `parameter ${k}`).toBeLessThan(1.3);
+    });
+    expect(start.line).toBeUndefined();
+    expect(start.notes[0]).toMatch(/type-curve match on 41 points/);
+  });
+
+  it("does not use the Cooper-Jacob line for a leaky record, whose flattened late data bias it", () => {
+    // The late straight line through levelling-off data is too flat: T comes out several times too high.
+    const s = hantushJacobModel.drawdown([300, 1e-4, 400], g, t);
+    const theisStart = startingValues("theis", g, t, s);
+    expect(theisStart.values[0]! / 300).toBeGreaterThan(2);
+  });
+
+  it("starts a Thiem fit with the R that reproduces the latest drawdown", () => {
+    const s = theisModel.drawdown([300, 1e-4], g, t);
+    const start = startingValues("thiem", g, t, s);
+    const model = thiemModel.drawdown(start.values, g, [t[40]!])[0]!;
+    expect(model).toBeCloseTo(s[40]!, 10);
+  });
+});

@@ -1,0 +1,48 @@
+/**
+ * @conebook/document: the plain-text Conebook document format. Parse and serialize (lossless), validation with
+ * line:column, SHA-256 pins for data files, narrative rendering, JSON Schemas. No execution, no Node APIs.
+ */
+
+export type {
+  Cell,
+  CellKind,
+  CellOrigin,
+  CellOutput,
+  CellOutputType,
+  ChartCell,
+  CodeCell,
+  ConebookDocument,
+  DataCell,
+  DataSlot,
+  Diagnostic,
+  DocumentHeader,
+  DocumentLayout,
+  NarrativeCell,
+  Position,
+  Severity,
+  TemplateParameter,
+} from "./types.js";
+export { parseDocument } from "./parse.js";
+export type { ParseOptions, ParseResult } from "./parse.js";
+export { serializeDocument } from "./serialize.js";
+export type { SerializeOptions } from "./serialize.js";
+export { withOutputs } from "./with-outputs.js";
+export type { WithOutputsOptions } from "./with-outputs.js";
+export { validateDocument, CELL_ID_PATTERN, DATA_NAME_PATTERN, SHA256_PATTERN, isSafeRelativePath } from "./validate.js";
+export type { ValidateOptions } from "./validate.js";
+export { DocumentError, formatDiagnostic } from "./errors.js";
+export { messages } from "./messages.js";
+export { renderNarrative } from "./render.js";
+export { sha256Hex, utf8Bytes } from "./sha256.js";
+export {
+  FORMAT_VERSION,
+  DEFAULT_CELL_TIME_LIMIT_MS,
+  MAX_CELL_TIME_LIMIT_MS,
+  DEFAULT_MEMORY_LIMIT_MB,
+  MAX_MEMORY_LIMIT_MB,
+  HEADER_KEYS,
+} from "./header.js";
+export { headerSchema, chartSpecSchema } from "./schema.js";
+export { validateJsonSchema } from "./json-schema.js";
+export type { JsonSchema, SchemaProblem } from "./json-schema.js";
+export { readOutputs, writeOutputs, outputShapeProblem } from "./outputs.js";

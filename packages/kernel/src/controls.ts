@@ -1,0 +1,53 @@
+/**
+ * `control(name, { value, min, max, unit?, description? })`: a number a reader may change before a rerun.
+ * The cell gets the override given to the run for that name (checked against the range) or the default value.
+ */
+import type { CellOutput } from "@conebook/document";
+import { ArgumentError, finite, optional, recordArg, stringArg } from "./validators.js";
+
+type ControlOutput = Extract<CellOutput, { type: "control" }>;
+
+/** One control met during a run. */
+export interface ControlRecord {
+  cellId: string;
+  output: ControlOutput;
+}
+
+const NAME = /^[A-Za-z_][A-Za-z0-9_ .-]*$/;
+const optionsArg = recordArg({ value: finite, min: finite, max: finite, unit: optional(stringArg()), description: optional(stringArg()) });
+
+/** Checks a control call and returns the record of it, with the value the cell gets. Throws ArgumentError. */
+export function controlValue(
+  name: unknown,
+  options: unknown,
+  overrides: Record<string, number>,
+  earlier: readonly ControlRecord[],
+  cellId: string,
+): ControlRecord {
+  if (typeof name !== "string" || !NAME.test(name)) {
+    throw new ArgumentError(`control: argument 1 (name) must be a name such as "Q" or "pumping_rate", got ${JSON.stringify(name) ?? "nothing"}`);
+  }
+  const o = optionsArg.check(options, `control "${name}": argument 2 (options)`);
+  const unit = o.unit ? ` ${o.unit}` : "";
+  if (!(o.min <= o.max)) throw new ArgumentError(`control "${name}": min ${o.min} is greater than max ${o.max}; swap them`);
+  if (o.value < o.min || o.value > o.max) {
+    throw new ArgumentError(`control "${name}": the value ${o.value}${unit} lies outside its range ${o.min}..${o.max}${unit}; widen the range or change the value`);
+  }
+  const previous = earlier.find((c) => c.output.name === name);
+  if (previous) throw new ArgumentError(`control "${name}" is already defined in cell ${previous.cellId}; give each control its own name`);
+  let value = o.value;
+  if (Object.hasOwn(overrides, name)) {
+    const v = overrides[name];
+    if (typeof v !== "number" || !Number.isFinite(v)) {
+      throw new ArgumentError(`control "${name}": the override ${String(v)} is not a finite number`);
+    }
+    if (v < o.min || v > o.max) {
+      throw new ArgumentError(`control "${name}": the override ${v}${unit} lies outside the allowed range ${o.min}..${o.max}${unit}; choose a value in the range`);
+    }
+    value = v;
+  }
+  const output: ControlOutput = { type: "control", name, value, default: o.value, min: o.min, max: o.max };
+  if (o.unit !== undefined) output.unit = o.unit;
+  if (o.description !== undefined) output.description = o.description;
+  return { cellId, output };
+}

@@ -1,0 +1,238 @@
+/**
+ * Display records from a cell (its last expression, `show(...)`, the `show.*` helpers) turned into the
+ * document's CellOutput values. Input is decoded wire data from the guest and is checked here; a display that
+ * cannot be shown throws DisplayError with a message for the user.
+ */
+import type { CellOutput } from "@conebook/document";
+
+/** A display the kernel cannot turn into an output; the message says why and what to pass instead. */
+export class DisplayError extends Error {
+  override readonly name = "DisplayError";
+}
+
+type Cell = number | string | null;
+type TableOutput = Extract<CellOutput, { type: "table" }>;
+type ChartOutput = Extract<CellOutput, { type: "chart" }>;
+
+function isRecord(v: unknown): v is Record<string, unknown> {
+  return v !== null && typeof v === "object" && !Array.isArray(v) && !(v instanceof Float64Array);
+}
+
+function isColumn(v: unknown): v is ArrayLike<unknown> {
+  return Array.isArray(v) || v instanceof Float64Array;
+}
+
+/** Plain JSON data: Float64Array becomes an array of numbers, non-finite numbers become null. */
+export function toJsonData(v: unknown): unknown {
+  if (typeof v === "number") return Number.isFinite(v) ? v : null;
+  if (v instanceof Float64Array) return Array.from(v, (x) => (Number.isFinite(x) ? x : null));
+  if (Array.isArray(v)) return v.map(toJsonData);
+  if (isRecord(v)) {
+    const out: Record<string, unknown> = {};
+    for (const [k, x] of Object.entries(v)) if (x !== undefined) out[k] = toJsonData(x);
+    return out;
+  }
+  return v === undefined ? null : v;
+}
+
+function cell(v: unknown): Cell {
+  if (typeof v === "number") return Number.isFinite(v) ? v : null;
+  if (typeof v === "string") return v;
+  if (v === null || v === undefined) return null;
+  if (typeof v === "boolean") return String(v);
+  return JSON.stringify(toJsonData(v));
+}
+
+/** Options of a table display. */
+interface TableOptions {
+  title?: unknown;
+  units?: unknown;
+}
+
+/**
+ * A table from an array of records, an object of equal-length columns, or `{ columns, rows }`.
+ * `options.units` maps column names to unit strings; `options.title` titles the table.
+ */
+export function tableOutput(data: unknown, options: unknown = {}): TableOutput {
+  const opts = (isRecord(options) ? options : {}) as TableOptions;
+  const units = isRecord(opts.units) ? opts.units : {};
+  let names: string[];
+  let rows: Cell[][];
+  if (Array.isArray(data)) {
+    names = [];
+    for (const r of data) {
+      if (!isRecord(r)) throw new DisplayError("show.table: an array must hold records (objects such as { t: 1, s: 0.2 }), one per row");
+      for (const k of Object.keys(r)) if (!names.includes(k)) names.push(k);
+    }
+    rows = data.map((r: Record<string, unknown>) => names.map((n) => cell(r[n])));
+  } else if (isRecord(data) && Array.isArray(data.columns) && Array.isArray(data.rows)) {
+    names = data.columns.map((c: unknown) => (isRecord(c) ? String(c.name) : String(c)));
+    rows = data.rows.map((r: unknown) => (Array.isArray(r) ? r.map(cell) : [cell(r)]));
+  } else if (isRecord(data) && Object.values(data).every(isColumn) && Object.keys(data).length > 0) {
+    names = Object.keys(data);
+    const cols = names.map((n) => data[n] as ArrayLike<unknown>);
+    const length = cols[0]!.length;
+    cols.forEach((c, i) => {
+      if (c.length !== length) {
+        throw new DisplayError(`show.table: column "${names[i]}" has ${c.length} values but "${names[0]}" has ${length}; give columns of equal length`);
+      }
+    });
+    rows = Array.from({ length }, (_, r) => cols.map((c) => cell(c[r])));
+  } else {
+    throw new DisplayError("show.table: give an array of records, an object of equal-length columns, or { columns, rows }");
+  }
+  const columns = names.map((name) => (typeof units[name] === "string" ? { name, unit: units[name] as string } : { name }));
+  const out: TableOutput = { type: "table", columns, rows };
+  if (typeof opts.title === "string") out.title = opts.title;
+  return out;
+}
+
+function pick(r: Record<string, unknown>, ...keys: string[]): unknown {
+  for (const k of keys) if (r[k] !== undefined) return r[k];
+  return undefined;
+}
+
+function interval(v: unknown): [Cell, Cell] {
+  if (isColumn(v) && v.length === 2) return [cell(v[0]), cell(v[1])];
+  if (isRecord(v)) return [cell(pick(v, "lower", "low", "min")), cell(pick(v, "upper", "high", "max"))];
+  return [null, null];
+}
+
+/**
+ * The parameter table of a fit: one row per parameter with estimate, standard error and 95 % interval.
+ * Reads `result.parameters`, either an array of `{ name, unit?, estimate | value, standardError | se,
+ * interval95 | ci95 | interval: [low, high] }` or a record of such objects keyed by parameter name.
+ */
+export function fitTableOutput(result: unknown, options: unknown = {}): TableOutput {
+  const params = isRecord(result) ? result.parameters : undefined;
+  const list: Record<string, unknown>[] = Array.isArray(params)
+    ? params.filter(isRecord)
+    : isRecord(params)
+      ? Object.entries(params).map(([name, p]) => ({ name, ...(isRecord(p) ? p : { estimate: p }) }))
+      : [];
+  if (list.length === 0) {
+    throw new DisplayError("show.fit: the value has no parameters; pass the result of a fit (an object with a `parameters` list)");
+  }
+  const rows = list.map((p) => {
+    const [lo, hi] = interval(pick(p, "interval95", "ci95", "confidenceInterval", "interval"));
+    return [
+      cell(pick(p, "name", "id")),
+      cell(pick(p, "estimate", "value")),
+      cell(pick(p, "standardError", "stdError", "se")),
+      lo,
+      hi,
+      cell(pick(p, "unit") ?? ""),
+    ];
+  });
+  const opts = isRecord(options) ? options : {};
+  const model = isRecord(result) ? pick(result, "modelName", "model") : undefined;
+  return {
+    type: "table",
+    title: typeof opts.title === "string" ? opts.title : typeof model === "string" ? `Fitted parameters: ${model}` : "Fitted parameters",
+    columns: [{ name: "parameter" }, { name: "estimate" }, { name: "standard error" }, { name: "95 % low" }, { name: "95 % high" }, { name: "unit" }],
+    rows,
+  };
+}
+
+/** A preview table of a series: the first and last `rows` points (default 5) of times and drawdowns. */
+export function seriesPreviewOutput(series: unknown, options: unknown = {}): TableOutput {
+  if (!isRecord(series) || !isColumn(series.times) || !isColumn(series.drawdowns)) {
+    throw new DisplayError("show.series: pass an observation series (an object with times and drawdowns arrays)");
+  }
+  const times = series.times;
+  const drawdowns = series.drawdowns;
+  const n = Math.min(times.length, drawdowns.length);
+  const opts = isRecord(options) ? options : {};
+  const head = typeof opts.rows === "number" && opts.rows >= 1 ? Math.floor(opts.rows) : 5;
+  const indices = n <= 2 * head ? [...Array(n).keys()] : [...Array(head).keys(), ...Array.from({ length: head }, (_, i) => n - head + i)];
+  const timeUnit = typeof series.timeUnit === "string" ? series.timeUnit : undefined;
+  const lengthUnit = typeof series.lengthUnit === "string" ? series.lengthUnit : undefined;
+  const name = typeof series.name === "string" ? series.name : "series";
+  return {
+    type: "table",
+    title: n <= 2 * head ? `${name}: ${n} points` : `${name}: ${n} points (first ${head} and last ${head})`,
+    columns: [
+      { name: "time", ...(timeUnit ? { unit: timeUnit } : {}) },
+      { name: "drawdown", ...(lengthUnit ? { unit: lengthUnit } : {}) },
+    ],
+    rows: indices.map((i) => [cell(times[i]), cell(drawdowns[i])]),
+  };
+}
+
+/** Name, row count and numeric extent of every inline data set in a Vega-Lite spec (layers included). */
+export function chartSummary(spec: Record<string, unknown>): ChartOutput["summary"] {
+  const datasets: ChartOutput["summary"]["datasets"] = [];
+  const visit = (node: unknown, path: string): void => {
+    if (Array.isArray(node)) {
+      node.forEach((n, i) => visit(n, `${path}[${i}]`));
+      return;
+    }
+    if (!isRecord(node)) return;
+    const data = node.data;
+    if (isRecord(data) && Array.isArray(data.values)) {
+      const fields = new Map<string, { name: string; min?: number; max?: number }>();
+      for (const r of data.values) {
+        if (!isRecord(r)) continue;
+        for (const [k, v] of Object.entries(r)) {
+          const f = fields.get(k) ?? { name: k };
+          if (typeof v === "number" && Number.isFinite(v)) {
+            f.min = f.min === undefined ? v : Math.min(f.min, v);
+            f.max = f.max === undefined ? v : Math.max(f.max, v);
+          }
+          fields.set(k, f);
+        }
+      }
+      datasets.push({ name: typeof data.name === "string" ? data.name : path || "data", rows: data.values.length, fields: [...fields.values()] });
+    }
+    for (const key of ["layer", "concat", "hconcat", "vconcat", "spec"]) if (key in node) visit(node[key], path ? `${path}.${key}` : key);
+  };
+  visit(spec, "");
+  return { datasets };
+}
+
+/** A chart output: the spec as JSON data and its summary. */
+export function chartOutput(spec: unknown): ChartOutput {
+  if (!isRecord(spec)) throw new DisplayError("show.chart: pass a Vega-Lite specification (an object)");
+  const clean = toJsonData(spec) as Record<string, unknown>;
+  return { type: "chart", spec: clean, summary: chartSummary(clean) };
+}
+
+/** The value output of `show.value(number, unit?, label?)`. */
+function valueOutput(payload: Record<string, unknown>): CellOutput {
+  if (typeof payload.value !== "number") throw new DisplayError("show.value: the first argument must be a number");
+  const out: CellOutput = { type: "value", value: payload.value };
+  if (typeof payload.unit === "string") out.unit = payload.unit;
+  if (typeof payload.label === "string") out.label = payload.label;
+  return out;
+}
+
+/**
+ * The output for one display record `{ kind, payload }` from the guest, or undefined when there is nothing
+ * to show (an undefined completion value).
+ */
+export function displayToOutput(display: unknown): CellOutput | undefined {
+  if (!isRecord(display) || typeof display.kind !== "string") throw new DisplayError("internal: a display record has no kind");
+  const payload = display.payload;
+  const p = isRecord(payload) ? payload : {};
+  switch (display.kind) {
+    case "auto":
+      if (payload === undefined) return undefined;
+      if (typeof payload === "number") return { type: "value", value: payload };
+      if (typeof payload === "string") return { type: "text", text: payload };
+      return { type: "json", value: toJsonData(payload) };
+    case "value":
+      return valueOutput(p);
+    case "table":
+      return tableOutput(p.data, p.options);
+    case "fit":
+      return fitTableOutput(p.result, p.options);
+    case "series":
+      return seriesPreviewOutput(p.series, p.options);
+    case "chart":
+      return chartOutput(p.spec);
+    case "json":
+      return { type: "json", value: toJsonData(p.value) };
+    default:
+      throw new DisplayError(`internal: unknown display kind ${JSON.stringify(display.kind)}`);
+  }
+}

@@ -1,0 +1,262 @@
+/**
+ * The JavaScript that runs first in every sandbox context, as source text. It is a function expression the
+ * host calls once with an object of host functions; it installs the cell-facing globals (`aq`, `charts`,
+ * `show`, `control`, the seeded `Math.random`, the clock-free `Date`) and returns an object of internals the
+ * host keeps a handle to. The host functions themselves are captured in closures here and never put on the
+ * global object, so a cell can reach them only through the wrappers below, which send plain data.
+ *
+ * Intrinsics the prelude relies on (JSON, Object, Float64Array, ...) are captured before any cell runs, so a
+ * cell that tampers with prototypes or globals cannot change how values are encoded for the host.
+ * The wire format is described in wire.ts; this is its guest half.
+ */
+export const GUEST_PRELUDE_FILENAME = "conebook:prelude";
+
+export const GUEST_PRELUDE = String.raw`(function (host, config) {
+  "use strict";
+  const G = globalThis;
+  const TAG = "\u0000";
+  const F64 = TAG + "f64", NUM = TAG + "num", UNDEF = TAG + "undef";
+  const stringify = JSON.stringify, parse = JSON.parse;
+  const getProto = Object.getPrototypeOf, objectProto = Object.prototype, keysOf = Object.keys;
+  const isArray = Array.isArray, isView = ArrayBuffer.isView, isFinite = Number.isFinite, is = Object.is;
+  const freeze = Object.freeze, defineProperty = Object.defineProperty;
+  const F64A = Float64Array, AB = ArrayBuffer, TypeErr = TypeError, Err = Error, Sym = Symbol;
+  const sliceBuffer = Function.prototype.call.bind(ArrayBuffer.prototype.slice);
+  const push = Function.prototype.call.bind(Array.prototype.push);
+  const indirectEval = eval, construct = Reflect.construct;
+  const DISPLAY = Sym("conebook.display");
+
+  function describe(v) {
+    if (v === null) return "null";
+    if (typeof v === "function") return "a function";
+    if (typeof v !== "object") return "a " + typeof v;
+    const p = getProto(v);
+    const ctor = p && p.constructor && typeof p.constructor.name === "string" ? p.constructor.name : "object";
+    return "a " + (ctor || "object");
+  }
+
+  function encode(value, where) {
+    const buffers = [];
+    const json = stringify(value, function (key, v) {
+      if (typeof v === "number") {
+        if (isFinite(v)) return is(v, -0) ? { [NUM]: "-0" } : v;
+        return { [NUM]: "" + v };
+      }
+      if (v === undefined) return { [UNDEF]: 0 };
+      if (v === null || typeof v === "string" || typeof v === "boolean") return v;
+      const at = key === "" ? where : where + ", field " + stringify(key);
+      if (typeof v !== "object") {
+        throw new TypeErr(at + " is " + describe(v) + "; only numbers, strings, booleans, null, arrays, plain objects and Float64Array can be passed");
+      }
+      if (v instanceof F64A) {
+        push(buffers, sliceBuffer(v.buffer, v.byteOffset, v.byteOffset + v.byteLength));
+        return { [F64]: buffers.length - 1 };
+      }
+      if (isView(v)) throw new TypeErr(at + " is " + describe(v) + "; use a Float64Array or a plain array of numbers");
+      if (isArray(v)) return v;
+      const p = getProto(v);
+      if (p !== objectProto && p !== null) {
+        throw new TypeErr(at + " is " + describe(v) + "; only plain objects (written as { ... }) can be passed");
+      }
+      const ks = keysOf(v);
+      for (let i = 0; i < ks.length; i++) {
+        if (ks[i].charCodeAt(0) === 0) throw new TypeErr(at + " has a key starting with \\u0000, which is reserved");
+      }
+      return v;
+    });
+    return [json === undefined ? stringify({ [UNDEF]: 0 }) : json, buffers];
+  }
+
+  function decode(wire) {
+    const buffers = wire[1];
+    return parse(wire[0], function (key, v) {
+      if (v === null || typeof v !== "object" || isArray(v)) return v;
+      if (F64 in v) return new F64A(buffers[v[F64]]);
+      if (NUM in v) return +v[NUM];
+      if (UNDEF in v) return undefined;
+      return v;
+    });
+  }
+
+  // The bridge: one guest function per allow-listed host function, sending its arguments as wire data.
+  function bridgeFunction(guestName, hostFn) {
+    const f = function () {
+      const args = [];
+      for (let i = 0; i < arguments.length; i++) push(args, arguments[i]);
+      const wire = encode(args, guestName + ": argument list");
+      return decode(hostFn(guestName, wire[0], wire[1]));
+    };
+    defineProperty(f, "name", { value: guestName.slice(guestName.lastIndexOf(".") + 1) });
+    return freeze(f);
+  }
+
+  function namespace(entries) {
+    const ns = {};
+    for (let i = 0; i < entries.length; i++) {
+      const path = entries[i].split(".");
+      let node = ns;
+      for (let k = 1; k < path.length - 1; k++) node = node[path[k]] || (node[path[k]] = {});
+      node[path[path.length - 1]] = bridgeFunction(entries[i], host.call);
+    }
+    return deepFreeze(ns);
+  }
+  function deepFreeze(o) {
+    const ks = keysOf(o);
+    for (let i = 0; i < ks.length; i++) if (typeof o[ks[i]] === "object") deepFreeze(o[ks[i]]);
+    return freeze(o);
+  }
+
+  const aq = namespace(config.aquifer);
+  const charts = namespace(config.charts);
+  // Chart builders return a Vega-Lite spec; mark it so a cell's last expression shows it as a chart.
+  const chartKeys = keysOf(charts);
+  const taggedCharts = {};
+  for (let i = 0; i < chartKeys.length; i++) {
+    const build = charts[chartKeys[i]];
+    taggedCharts[chartKeys[i]] = freeze(defineProperty(function () {
+      const spec = build.apply(undefined, arguments);
+      return display("chart", { spec: spec });
+    }, "name", { value: chartKeys[i] }));
+  }
+
+  // Display helpers: tagged frozen records the host turns into outputs.
+  function display(kind, payload) {
+    const d = { kind: kind, payload: payload };
+    defineProperty(d, DISPLAY, { value: true });
+    return freeze(d);
+  }
+  function toDisplay(v) {
+    if (v !== null && typeof v === "object" && v[DISPLAY] === true) return { kind: v.kind, payload: v.payload };
+    return { kind: "auto", payload: v };
+  }
+  function emit(v, where) {
+    const w = encode(toDisplay(v), where);
+    host.emit(w[0], w[1]);
+  }
+  function show(v) {
+    if (arguments.length === 0) throw new TypeErr("show: give the value to show, e.g. show(T)");
+    emit(v, "show: argument 1");
+  }
+  show.value = function value(number, unit, label) {
+    return display("value", { value: number, unit: unit, label: label });
+  };
+  show.table = function table(data, options) {
+    return display("table", { data: data, options: options });
+  };
+  show.fit = function fit(result, options) {
+    return display("fit", { result: result, options: options });
+  };
+  show.series = function series(s, options) {
+    return display("series", { series: s, options: options });
+  };
+  show.chart = function chart(spec) {
+    return display("chart", { spec: spec });
+  };
+  show.json = function json(v) {
+    return display("json", { value: v });
+  };
+  freeze(show);
+
+  function control(name, options) {
+    const w = encode([name, options], "control: argument list");
+    return decode(host.control(w[0], w[1]));
+  }
+  freeze(control);
+
+  // Math.random: xoshiro128** (Blackman & Vigna 2018), state filled by splitmix32 from the document seed.
+  const imul = Math.imul;
+  let seed = config.seed >>> 0;
+  function splitmix32() {
+    seed = (seed + 0x9e3779b9) | 0;
+    let z = seed;
+    z = imul(z ^ (z >>> 16), 0x85ebca6b);
+    z = imul(z ^ (z >>> 13), 0xc2b2ae35);
+    return (z ^ (z >>> 16)) >>> 0;
+  }
+  let s0 = splitmix32(), s1 = splitmix32(), s2 = splitmix32(), s3 = splitmix32();
+  function rotl(x, k) { return (x << k) | (x >>> (32 - k)); }
+  function random() {
+    const result = imul(rotl(imul(s1, 5), 7), 9) >>> 0;
+    const t = s1 << 9;
+    s2 ^= s0; s3 ^= s1; s1 ^= s2; s0 ^= s3; s2 ^= t; s3 = rotl(s3, 11);
+    return result / 4294967296;
+  }
+  defineProperty(Math, "random", { value: random, writable: true, configurable: true });
+
+  // Date without a clock and without a time zone: reading the current time is refused, and every "local"
+  // method is its UTC twin, so outputs never depend on when or where the document runs.
+  const D = Date;
+  const utc = D.UTC, dateParse = D.parse;
+  const ISO = /^[+-]?\d{4,6}(-\d\d(-\d\d)?)?(T\d\d:\d\d(:\d\d(\.\d{1,9})?)?(Z|[+-]\d\d:\d\d)?)?$/;
+  function clockError(what) {
+    return new Err(what + " reads the clock, which a Conebook cell may not do: outputs must be the same on every run. " +
+      "Give the date explicitly, e.g. new Date(\"2024-05-01T08:00:00Z\").");
+  }
+  function parseIso(s) {
+    if (!ISO.test(s)) {
+      throw new Err("Date: " + stringify(s) + " is not an ISO 8601 date; write e.g. \"2024-05-01\" or \"2024-05-01T08:00:00Z\" (times without an offset are UTC)");
+    }
+    const zoned = s.indexOf("T") < 0 || /(Z|[+-]\d\d:\d\d)$/.test(s) ? s : s + "Z";
+    return dateParse(zoned);
+  }
+  function toTime(args) {
+    if (args.length === 1) {
+      const a = args[0];
+      if (typeof a === "string") return parseIso(a);
+      if (a instanceof D) return a.getTime();
+      return +a;
+    }
+    const f = [];
+    for (let i = 0; i < 7; i++) push(f, i < args.length ? +args[i] : i === 2 ? 1 : 0);
+    return utc(f[0], f[1], f[2], f[3], f[4], f[5], f[6]);
+  }
+  function SandboxDate() {
+    if (!new.target) throw clockError("Date()");
+    if (arguments.length === 0) throw clockError("new Date()");
+    return construct(D, [toTime(arguments)], new.target);
+  }
+  SandboxDate.prototype = D.prototype;
+  defineProperty(D.prototype, "constructor", { value: SandboxDate, writable: true, configurable: true });
+  SandboxDate.UTC = utc;
+  SandboxDate.parse = function parse(s) { return parseIso("" + s); };
+  SandboxDate.now = function now() { throw clockError("Date.now()"); };
+  const P = D.prototype;
+  const localToUtc = ["FullYear", "Month", "Date", "Day", "Hours", "Minutes", "Seconds", "Milliseconds"];
+  for (let i = 0; i < localToUtc.length; i++) {
+    const n = localToUtc[i];
+    defineProperty(P, "get" + n, { value: P["getUTC" + n], writable: true, configurable: true });
+    if (n !== "Day") defineProperty(P, "set" + n, { value: P["setUTC" + n], writable: true, configurable: true });
+  }
+  const toIso = P.toISOString;
+  defineProperty(P, "getTimezoneOffset", { value: function getTimezoneOffset() { return 0; }, writable: true, configurable: true });
+  const asIso = function () { return isFinite(this.getTime()) ? toIso.call(this) : "Invalid Date"; };
+  const textMethods = ["toString", "toLocaleString", "toLocaleDateString", "toLocaleTimeString", "toDateString", "toTimeString"];
+  for (let i = 0; i < textMethods.length; i++) {
+    defineProperty(P, textMethods[i], { value: asIso, writable: true, configurable: true });
+  }
+  defineProperty(G, "Date", { value: SandboxDate, writable: true, configurable: true });
+
+  function defineData(name, wire) {
+    defineProperty(G, name, { value: decode(wire), writable: false, enumerable: true, configurable: false });
+  }
+  function readGlobal(name) {
+    let v;
+    try {
+      v = indirectEval(name);
+    } catch (e) {
+      throw new Err("no value named " + stringify(name) + " exists yet; define it in an earlier code cell or data cell");
+    }
+    return encode(v, "chart data " + stringify(name));
+  }
+  function displayCompletion(v) {
+    if (v === undefined) return undefined;
+    return encode(toDisplay(v), "the cell's last expression");
+  }
+
+  const api = { aq: aq, charts: freeze(taggedCharts), show: show, control: control };
+  const names = keysOf(api);
+  for (let i = 0; i < names.length; i++) {
+    defineProperty(G, names[i], { value: api[names[i]], writable: false, enumerable: false, configurable: false });
+  }
+  return freeze({ defineData: defineData, readGlobal: readGlobal, displayCompletion: displayCompletion });
+})`;

@@ -1,0 +1,14 @@
+/**
+ * @conebook/kernel: runs a parsed Conebook document's cells in a QuickJS sandbox. No Node APIs here; the
+ * Node entry (`@conebook/kernel/node`, src/node.ts) adds file reading, the browser entry (src/browser.ts)
+ * loading the wasm from a URL.
+ */
+export { createKernel, type CellStatus, type Kernel, type KernelOptions, type ModuleLoader, type RunOptions, type RunProgress, type RunResult } from "./kernel.js";
+export { DEFAULT_MEMORY_LIMIT_MB, DEFAULT_TIME_LIMIT_MS, MAX_MEMORY_LIMIT_MB, MAX_TIME_LIMIT_MS, limitsFor, type RunLimits } from "./limits.js";
+export { STACK_LIMIT_BYTES, Sandbox, type SandboxHooks, type SandboxOptions } from "./sandbox.js";
+export { AQUIFER_API, BRIDGE_API, CHART_API, arg, fn, type BridgeArgument, type BridgeEntry } from "./bridge-api.js";
+export { ArgumentError } from "./validators.js";
+export { stripTypes, CellSyntaxError, type StrippedCell } from "./strip-types.js";
+export { parseDataTable, DataCellError, type DataTable, type ReadFile } from "./data-cells.js";
+export { type ControlRecord } from "./controls.js";
+export * from "./charts/index.js";

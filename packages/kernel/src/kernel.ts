@@ -1,0 +1,261 @@
+/**
+ * The run function shared by the CLI, the viewer's worker and the tests: a parsed document in, its outputs out.
+ *
+ *   document cells --(in order)--> code: strip types -> evaluate as a global script -> displays -> outputs
+ *                                  data: read CSV (check the pin) -> define a read-only global
+ *                                  chart: read the named globals -> inline them in the spec -> chart output
+ *
+ * All cells of a run share one fresh QuickJS context, so a top-level const/let/function of one code cell is
+ * visible to the cells below it. The first cell that fails gets an `error` output; the cells after it get
+ * `not-run`. Each run starts from a new sandbox, which makes two runs of one document identical.
+ */
+import type { QuickJSSyncVariant, QuickJSWASMModule } from "quickjs-emscripten-core";
+import type { Cell, CellOutput, ChartCell, CodeCell, ConebookDocument, DataCell } from "@conebook/document";
+import { chartDataNames, chartRecords, fillChartData } from "./chart-cells.js";
+import { controlValue, type ControlRecord } from "./controls.js";
+import { dataCellText, DataCellError, parseDataTable, type ReadFile } from "./data-cells.js";
+import { chartOutput, displayToOutput } from "./displays.js";
+import { limitsFor, type RunLimits } from "./limits.js";
+import { abortMessage, cellFilename, errorLocation } from "./locations.js";
+import { Sandbox, STACK_LIMIT_BYTES, type GuestError } from "./sandbox.js";
+import { CellSyntaxError, stripTypes } from "./strip-types.js";
+
+/** Status of an executable cell after a run. */
+export type CellStatus = "ok" | "error" | "not-run";
+
+/** Progress report after each executable cell. */
+export interface RunProgress {
+  cellId: string;
+  /** 0-based index among the executable (code, data, chart) cells. */
+  index: number;
+  total: number;
+  status: CellStatus;
+  elapsedMs: number;
+}
+
+/** Options of one run. */
+export interface RunOptions {
+  /** Values for `control(name, ...)` calls, by control name; each must lie in the control's range. */
+  overrides?: Record<string, number>;
+  /** Reads a pinned data file beside the document (path relative, forward slashes). */
+  readFile?: ReadFile;
+  onProgress?: (progress: RunProgress) => void;
+}
+
+/** What a run produced. Narrative cells do not appear. */
+export interface RunResult {
+  outputs: Record<string, CellOutput[]>;
+  status: Record<string, CellStatus>;
+  /** Wall-clock time per cell in ms, and for the whole run including sandbox start (`total`, `sandboxStart`). */
+  timings: { cells: Record<string, number>; sandboxStartMs: number; totalMs: number };
+  /** Every control the run met, in order, with the value used. */
+  controlsUsed: ControlRecord[];
+  /** Override names that no control asked for (probably misspelt). */
+  unusedOverrides: string[];
+  limits: RunLimits;
+}
+
+/** Loads (or returns) the QuickJS module a kernel runs on. */
+export type ModuleLoader = () => Promise<QuickJSWASMModule> | QuickJSWASMModule;
+
+/** Settings of a kernel. */
+export interface KernelOptions {
+  /**
+   * Loads the QuickJS module; by default the release-sync variant as its package loads it (fine in Node;
+   * under Vite pass `loadBrowserModule(wasmUrl)` from the browser entry). Called again after a run was
+   * aborted by a limit, so that the wasm memory a runaway cell grew is released.
+   */
+  loadModule?: ModuleLoader;
+}
+
+/** Runs documents; keeps the loaded QuickJS module between runs. */
+export interface Kernel {
+  runDocument(doc: ConebookDocument, options?: RunOptions): Promise<RunResult>;
+  /** Creates and disposes one sandbox and returns its start time in ms (for benchmarks). */
+  measureSandboxStart(seed?: number): Promise<number>;
+  /** Forgets the loaded module. */
+  dispose(): void;
+}
+
+async function defaultLoader(): Promise<QuickJSWASMModule> {
+  const [{ newQuickJSWASMModuleFromVariant }, variant] = await Promise.all([
+    import("quickjs-emscripten-core"),
+    import("@jitl/quickjs-wasmfile-release-sync"),
+  ]);
+  // The package's types describe its CommonJS build; the ESM build has the variant as its default export.
+  return newQuickJSWASMModuleFromVariant(variant.default as unknown as QuickJSSyncVariant);
+}
+
+const IDENTIFIER = /^[A-Za-z_$][A-Za-z0-9_$]*$/;
+
+function isExecutable(cell: Cell): cell is CodeCell | DataCell | ChartCell {
+  return cell.kind === "code" || cell.kind === "data" || cell.kind === "chart";
+}
+
+/** Creates a kernel. See KernelOptions. */
+export function createKernel(options: KernelOptions = {}): Kernel {
+  const load = options.loadModule ?? defaultLoader;
+  let module: Promise<QuickJSWASMModule> | undefined;
+  const getModule = () => (module ??= Promise.resolve(load()));
+
+  return {
+    async measureSandboxStart(seed = 1) {
+      const mod = await getModule();
+      const t0 = performance.now();
+      const sandbox = new Sandbox(mod, {
+        memoryLimitBytes: 256 * 1024 * 1024,
+        seed,
+        hooks: { emit() {}, control: () => NaN },
+      });
+      sandbox.dispose();
+      return performance.now() - t0;
+    },
+    async runDocument(doc, runOptions = {}) {
+      const result = await runWithModule(await getModule(), doc, runOptions);
+      if (result.aborted) module = undefined;
+      return result.result;
+    },
+    dispose() {
+      module = undefined;
+    },
+  };
+}
+
+async function runWithModule(
+  mod: QuickJSWASMModule,
+  doc: ConebookDocument,
+  options: RunOptions,
+): Promise<{ result: RunResult; aborted: boolean }> {
+  const tStart = performance.now();
+  const limits = limitsFor(doc.header);
+  const overrides = options.overrides ?? {};
+  const outputs: Record<string, CellOutput[]> = {};
+  const status: Record<string, CellStatus> = {};
+  const cellTimes: Record<string, number> = {};
+  const controlsUsed: ControlRecord[] = [];
+  let current: { cell: Cell; outputs: CellOutput[] } | undefined;
+
+  const sandbox = new Sandbox(mod, {
+    memoryLimitBytes: limits.memoryLimitMb * 1024 * 1024,
+    seed: doc.header.seed,
+    hooks: {
+      emit(display) {
+        const out = displayToOutput(display);
+        if (out && current) current.outputs.push(out);
+      },
+      control(name, opts) {
+        const record = controlValue(name, opts, overrides, controlsUsed, current?.cell.id ?? "");
+        controlsUsed.push(record);
+        current?.outputs.push(record.output);
+        return record.output.value;
+      },
+    },
+  });
+  const sandboxStartMs = performance.now() - tStart;
+  const cells = doc.cells.filter(isExecutable);
+  let failedAt: string | undefined;
+  let aborted = false;
+
+  try {
+    for (const [index, cell] of cells.entries()) {
+      const t0 = performance.now();
+      if (failedAt !== undefined) {
+        outputs[cell.id] = [{ type: "not-run", reason: `an earlier cell (${failedAt}) failed` }];
+        status[cell.id] = "not-run";
+      } else {
+        current = { cell, outputs: [] };
+        const error = await runCell(sandbox, cell, limits, options.readFile, current.outputs);
+        outputs[cell.id] = current.outputs;
+        if (error) {
+          current.outputs.push(error);
+          status[cell.id] = "error";
+          failedAt = cell.id;
+          if (sandbox.broken) aborted = true;
+        } else status[cell.id] = "ok";
+        current = undefined;
+      }
+      cellTimes[cell.id] = performance.now() - t0;
+      options.onProgress?.({ cellId: cell.id, index, total: cells.length, status: status[cell.id]!, elapsedMs: cellTimes[cell.id]! });
+    }
+  } finally {
+    sandbox.dispose();
+  }
+  const used = new Set(controlsUsed.map((c) => c.output.name));
+  return {
+    aborted,
+    result: {
+      outputs,
+      status,
+      timings: { cells: cellTimes, sandboxStartMs, totalMs: performance.now() - tStart },
+      controlsUsed,
+      unusedOverrides: Object.keys(overrides).filter((k) => !used.has(k)),
+      limits,
+    },
+  };
+}
+
+type ErrorOutput = Extract<CellOutput, { type: "error" }>;
+
+function guestErrorOutput(cell: Cell, error: GuestError, limits: RunLimits, map?: (line: number, column: number) => number): ErrorOutput {
+  if (error.abort) {
+    const out: ErrorOutput = { type: "error", message: abortMessage(cell.id, error.abort, limits, STACK_LIMIT_BYTES) };
+    const loc = errorLocation(cell, error.stack, map);
+    return loc ? { ...out, ...loc } : out;
+  }
+  const out: ErrorOutput = { type: "error", message: `${error.name}: ${error.message}` };
+  const loc = errorLocation(cell, error.stack, map);
+  return loc ? { ...out, ...loc } : out;
+}
+
+/** Runs one cell; returns its error output, or undefined when it succeeded. */
+async function runCell(
+  sandbox: Sandbox,
+  cell: CodeCell | DataCell | ChartCell,
+  limits: RunLimits,
+  readFile: ReadFile | undefined,
+  outputs: CellOutput[],
+): Promise<ErrorOutput | undefined> {
+  const fileLine = (line: number) => cell.sourceStart.line + line - 1;
+  const fileColumn = (line: number, column: number) => (line === 1 ? cell.sourceStart.column + column - 1 : column);
+  try {
+    if (cell.kind === "code") {
+      let stripped;
+      try {
+        stripped = stripTypes(cell.source);
+      } catch (e) {
+        if (!(e instanceof CellSyntaxError)) throw e;
+        return { type: "error", message: `SyntaxError: ${e.message}`, line: fileLine(e.line), column: fileColumn(e.line, e.column) };
+      }
+      const outcome = sandbox.evalScript(stripped.code, cellFilename(cell.id), limits.timeLimitMs);
+      if (!outcome.ok) return guestErrorOutput(cell, outcome.error, limits, stripped.sourceColumn);
+      const out = outcome.value === undefined ? undefined : displayToOutput(outcome.value);
+      if (out) outputs.push(out);
+      return undefined;
+    }
+    if (cell.kind === "data") {
+      if (!IDENTIFIER.test(cell.name)) {
+        return { type: "error", message: `data name "${cell.name}" is not a valid name; use letters, digits and _ (not starting with a digit)`, line: cell.sourceStart.line };
+      }
+      const text = await dataCellText(cell, readFile);
+      const table = parseDataTable(cell.name, text, cell.file ? 1 : cell.sourceStart.line);
+      const outcome = sandbox.defineData(cell.name, table, limits.timeLimitMs);
+      if (!outcome.ok) return guestErrorOutput(cell, outcome.error, limits);
+      return undefined;
+    }
+    const values = new Map<string, unknown[]>();
+    for (const name of chartDataNames(cell.spec)) {
+      if (!IDENTIFIER.test(name)) {
+        return { type: "error", message: `chart data name "${name}" is not a valid name; name a value defined in an earlier cell`, line: cell.sourceStart.line };
+      }
+      const outcome = sandbox.readGlobal(name, limits.timeLimitMs);
+      if (!outcome.ok) return { type: "error", message: `${outcome.error.name}: ${outcome.error.message}`, line: cell.sourceStart.line };
+      values.set(name, chartRecords(name, outcome.value));
+    }
+    outputs.push(chartOutput(fillChartData(cell.spec, values)));
+    return undefined;
+  } catch (e) {
+    const message = e instanceof Error ? `${e.name}: ${e.message}` : String(e);
+    const line = e instanceof DataCellError && e.line !== undefined && !(cell.kind === "data" && cell.file) ? e.line : cell.sourceStart.line;
+    return { type: "error", message, line };
+  }
+}

@@ -1,0 +1,297 @@
+/**
+ * One QuickJS runtime and context with Conebook's limits and bridge installed: the place cells run.
+ *
+ * Limits: a memory limit for the runtime (`setMemoryLimit`), a 128 KiB stack limit (`setMaxStackSize`; without
+ * one, deep recursion overflows the host stack), and a fresh deadline interrupt for each evaluation. The
+ * interrupt is checked by the interpreter between bytecodes; it does not fire inside one long native builtin
+ * or inside a host bridge call, which is why a browser host also keeps a worker it can terminate.
+ * After an abort (time, memory or stack) the sandbox is marked `broken` and must be disposed.
+ *
+ * Every handle made here is disposed before the call that made it returns, except the prelude's internals,
+ * which the sandbox owns and frees in `dispose`.
+ */
+import type { QuickJSContext, QuickJSHandle, QuickJSRuntime, QuickJSWASMModule } from "quickjs-emscripten-core";
+import { BRIDGE_API } from "./bridge-api.js";
+import { GUEST_PRELUDE, GUEST_PRELUDE_FILENAME } from "./guest-prelude.js";
+import { ArgumentError } from "./validators.js";
+import { decodeWireValue, encodeHostValue, type WireValue } from "./wire.js";
+
+/** The stack limit of every sandbox: 128 KiB, safe in Node, Chromium and workers. */
+export const STACK_LIMIT_BYTES = 128 * 1024;
+
+/** Why an evaluation was stopped by a limit rather than by a thrown error. */
+export type AbortKind = "time" | "memory" | "stack";
+
+/** A guest error as plain data: name, message and the guest stack text. */
+export interface GuestError {
+  name: string;
+  message: string;
+  stack: string;
+  abort?: AbortKind;
+}
+
+/** What an evaluation produced: a value decoded from the guest, or a guest error. */
+export type Outcome<T> = { ok: true; value: T } | { ok: false; error: GuestError };
+
+/** Callbacks the guest's `show` and `control` reach; the kernel points them at the current cell. */
+export interface SandboxHooks {
+  /** A display record from `show(...)` (decoded wire data, not yet validated). */
+  emit(display: unknown): void;
+  /** `control(name, options)`: returns the value the cell gets; throws ArgumentError for bad options. */
+  control(name: unknown, options: unknown): number;
+}
+
+/** Settings of a new sandbox. */
+export interface SandboxOptions {
+  memoryLimitBytes: number;
+  seed: number;
+  hooks: SandboxHooks;
+}
+
+function errorMessage(e: unknown): { name: string; message: string } {
+  if (e instanceof Error) return { name: e.name, message: e.message };
+  return { name: "Error", message: String(e) };
+}
+
+/** The guest-facing name of a host error: "aq.expint1: ..." (a message already starting with the bare name keeps one prefix). */
+function bridgeErrorMessage(guestName: string, e: unknown): { name: string; message: string } {
+  const { name, message } = errorMessage(e);
+  if (e instanceof ArgumentError) return { name: "TypeError", message };
+  const bare = guestName.slice(guestName.indexOf(".") + 1);
+  const rest = message.startsWith(`${bare}: `) ? message.slice(bare.length + 2) : message;
+  return { name: name === "Error" ? "Error" : name, message: `${guestName}: ${rest}` };
+}
+
+/** A QuickJS context ready to run cells. */
+export class Sandbox {
+  readonly runtime: QuickJSRuntime;
+  readonly context: QuickJSContext;
+  private readonly internals: QuickJSHandle;
+  private deadline = Infinity;
+  private interrupted = false;
+  /** True after an abort: the runtime may be in a bad state; dispose it. */
+  broken = false;
+  hooks: SandboxHooks;
+
+  /** Creates a runtime and context on `module`, installs limits, bridge and prelude. Cost: about a millisecond. */
+  constructor(module: QuickJSWASMModule, options: SandboxOptions) {
+    this.hooks = options.hooks;
+    this.runtime = module.newRuntime();
+    this.runtime.setMemoryLimit(options.memoryLimitBytes);
+    this.runtime.setMaxStackSize(STACK_LIMIT_BYTES);
+    this.runtime.setInterruptHandler(() => {
+      if (Date.now() > this.deadline) {
+        this.interrupted = true;
+        return true;
+      }
+      return false;
+    });
+    this.context = this.runtime.newContext();
+    try {
+      this.internals = this.installPrelude(options.seed);
+    } catch (e) {
+      this.context.dispose();
+      this.runtime.dispose();
+      throw e;
+    }
+  }
+
+  private installPrelude(seed: number): QuickJSHandle {
+    const ctx = this.context;
+    const preludeFn = ctx.unwrapResult(ctx.evalCode(GUEST_PRELUDE, GUEST_PRELUDE_FILENAME, { type: "global", strict: true }));
+    const host = ctx.newObject();
+    const call = ctx.newFunction("call", (nameH, jsonH, buffersH) => this.hostCall(nameH, jsonH, buffersH));
+    const emit = ctx.newFunction("emit", (jsonH, buffersH) => this.hostEmit(jsonH, buffersH));
+    const control = ctx.newFunction("control", (jsonH, buffersH) => this.hostControl(jsonH, buffersH));
+    ctx.setProp(host, "call", call);
+    ctx.setProp(host, "emit", emit);
+    ctx.setProp(host, "control", control);
+    call.dispose();
+    emit.dispose();
+    control.dispose();
+    const names = Object.keys(BRIDGE_API);
+    const configWire = encodeHostValue({
+      seed,
+      aquifer: names.filter((n) => n.startsWith("aq.")),
+      charts: names.filter((n) => n.startsWith("charts.")),
+    });
+    const config = ctx.unwrapResult(ctx.evalCode(`(${configWire.json})`, GUEST_PRELUDE_FILENAME));
+    const result = ctx.callFunction(preludeFn, ctx.undefined, host, config);
+    preludeFn.dispose();
+    host.dispose();
+    config.dispose();
+    return ctx.unwrapResult(result);
+  }
+
+  private readWire(jsonH: QuickJSHandle, buffersH: QuickJSHandle): WireValue {
+    const ctx = this.context;
+    const json = ctx.getString(jsonH);
+    const buffers: ArrayBuffer[] = [];
+    const lengthH = ctx.getProp(buffersH, "length");
+    const n = ctx.typeof(lengthH) === "number" ? ctx.getNumber(lengthH) : 0;
+    lengthH.dispose();
+    for (let i = 0; i < n; i++) {
+      const h = ctx.getProp(buffersH, i);
+      const bytes = ctx.getArrayBuffer(h);
+      buffers.push(bytes.value.slice().buffer as ArrayBuffer);
+      bytes.dispose();
+      h.dispose();
+    }
+    return { json, buffers };
+  }
+
+  /** Builds the guest array [json, [buffer...]] that the prelude's `decode` reads. */
+  private newWire(value: unknown): QuickJSHandle {
+    const ctx = this.context;
+    const wire = encodeHostValue(value);
+    const out = ctx.newArray();
+    const json = ctx.newString(wire.json);
+    ctx.setProp(out, 0, json);
+    json.dispose();
+    const list = ctx.newArray();
+    wire.buffers.forEach((b, i) => {
+      const h = ctx.newArrayBuffer(b);
+      ctx.setProp(list, i, h);
+      h.dispose();
+    });
+    ctx.setProp(out, 1, list);
+    list.dispose();
+    return out;
+  }
+
+  private hostCall(nameH: QuickJSHandle, jsonH: QuickJSHandle, buffersH: QuickJSHandle) {
+    const ctx = this.context;
+    const guestName = ctx.getString(nameH);
+    const entry = Object.hasOwn(BRIDGE_API, guestName) ? BRIDGE_API[guestName] : undefined;
+    try {
+      if (!entry) throw new ArgumentError(`${guestName} is not an available function`);
+      const args = decodeWireValue(this.readWire(jsonH, buffersH)) as unknown[];
+      if (args.length > entry.args.length) {
+        throw new ArgumentError(`${guestName} takes ${entry.args.length} argument(s) (${entry.args.map((a) => a.name).join(", ")}), got ${args.length}`);
+      }
+      const checked = entry.args.map((a, i) => a.validator.check(args[i], `${guestName}: argument ${i + 1} (${a.name})`));
+      return this.newWire((entry.call as (...a: unknown[]) => unknown)(...checked));
+    } catch (e) {
+      return { error: ctx.newError(bridgeErrorMessage(guestName, e)) };
+    }
+  }
+
+  private hostEmit(jsonH: QuickJSHandle, buffersH: QuickJSHandle) {
+    try {
+      this.hooks.emit(decodeWireValue(this.readWire(jsonH, buffersH)));
+      return undefined;
+    } catch (e) {
+      return { error: this.context.newError(errorMessage(e)) };
+    }
+  }
+
+  private hostControl(jsonH: QuickJSHandle, buffersH: QuickJSHandle) {
+    try {
+      const [name, options] = decodeWireValue(this.readWire(jsonH, buffersH)) as unknown[];
+      return this.newWire(this.hooks.control(name, options));
+    } catch (e) {
+      const { message } = errorMessage(e);
+      return { error: this.context.newError({ name: e instanceof ArgumentError ? "TypeError" : "Error", message }) };
+    }
+  }
+
+  /** Turns a guest error handle into plain data, classifying limit aborts. Disposes the handle. */
+  private takeError(h: QuickJSHandle): GuestError {
+    const dumped: unknown = this.context.dump(h);
+    h.dispose();
+    let error: GuestError;
+    if (dumped !== null && typeof dumped === "object") {
+      const d = dumped as Record<string, unknown>;
+      error = { name: String(d.name ?? "Error"), message: String(d.message ?? ""), stack: String(d.stack ?? "") };
+    } else error = { name: "Error", message: `a value was thrown that is not an Error: ${String(dumped)}`, stack: "" };
+    if (this.interrupted && error.name === "InternalError" && error.message === "interrupted") error.abort = "time";
+    else if (error.name === "InternalError" && error.message === "out of memory") error.abort = "memory";
+    else if (error.name === "InternalError" && error.message === "stack overflow") error.abort = "stack";
+    else if (error.name === "RangeError" && /Maximum call stack/.test(error.message)) error.abort = "stack";
+    if (error.abort) this.broken = true;
+    return error;
+  }
+
+  private withDeadline<T>(timeLimitMs: number, run: () => T): T {
+    this.interrupted = false;
+    this.deadline = Date.now() + timeLimitMs;
+    try {
+      return run();
+    } finally {
+      this.deadline = Infinity;
+    }
+  }
+
+  private callInternal(method: string, args: QuickJSHandle[], timeLimitMs: number): Outcome<unknown> {
+    const ctx = this.context;
+    return this.withDeadline(timeLimitMs, () => {
+      const fnH = ctx.getProp(this.internals, method);
+      const result = ctx.callFunction(fnH, ctx.undefined, ...args);
+      fnH.dispose();
+      if (result.error) return { ok: false, error: this.takeError(result.error) };
+      const value = this.readWireHandle(result.value);
+      return { ok: true, value };
+    });
+  }
+
+  /** Reads a guest wire array (or undefined) from a handle and disposes it. */
+  private readWireHandle(h: QuickJSHandle): unknown {
+    const ctx = this.context;
+    if (ctx.typeof(h) === "undefined") {
+      h.dispose();
+      return undefined;
+    }
+    const jsonH = ctx.getProp(h, 0);
+    const buffersH = ctx.getProp(h, 1);
+    const wire = this.readWire(jsonH, buffersH);
+    jsonH.dispose();
+    buffersH.dispose();
+    h.dispose();
+    return decodeWireValue(wire);
+  }
+
+  /**
+   * Runs JavaScript as a global script (top-level const/let/function stay visible to later scripts) within
+   * `timeLimitMs`, and returns the display record of its completion value (undefined when there is none).
+   */
+  evalScript(code: string, filename: string, timeLimitMs: number): Outcome<unknown> {
+    const ctx = this.context;
+    return this.withDeadline(timeLimitMs, () => {
+      // Strict: assigning to a read-only data global or an undeclared name is an error, as in TypeScript modules.
+      const result = ctx.evalCode(code, filename, { type: "global", strict: true });
+      if (result.error) return { ok: false, error: this.takeError(result.error) };
+      const display = ctx.getProp(this.internals, "displayCompletion");
+      const wire = ctx.callFunction(display, ctx.undefined, result.value);
+      display.dispose();
+      result.value.dispose();
+      if (wire.error) return { ok: false, error: this.takeError(wire.error) };
+      return { ok: true, value: this.readWireHandle(wire.value) };
+    });
+  }
+
+  /** Defines a read-only global `name` holding `value` (plain data). */
+  defineData(name: string, value: unknown, timeLimitMs: number): Outcome<unknown> {
+    const nameH = this.context.newString(name);
+    const wire = this.newWire(value);
+    const outcome = this.callInternal("defineData", [nameH, wire], timeLimitMs);
+    nameH.dispose();
+    wire.dispose();
+    return outcome;
+  }
+
+  /** The value of the guest global (or global lexical binding) `name`, as plain data. */
+  readGlobal(name: string, timeLimitMs: number): Outcome<unknown> {
+    const nameH = this.context.newString(name);
+    const outcome = this.callInternal("readGlobal", [nameH], timeLimitMs);
+    nameH.dispose();
+    return outcome;
+  }
+
+  /** Frees the internals, the context and the runtime. Safe to call twice. */
+  dispose(): void {
+    if (!this.runtime.alive) return;
+    if (this.internals.alive) this.internals.dispose();
+    this.context.dispose();
+    this.runtime.dispose();
+  }
+}
