@@ -1,6 +1,6 @@
 /**
- * Reading a Conebook file. Pipeline: split off the YAML header -> parse the rest as CommonMark with
- * mdast-util-from-markdown -> classify top-level blocks (cell fences, outputs fences, narrative markers,
+ * Reading a Conebook file. Pipeline: split off the YAML header -> find the CommonMark block structure of the
+ * rest (markdown-it, block phase only) -> classify top-level blocks (cell fences, outputs fences, narrative markers,
  * everything else) -> group them into cells, keeping every character of the file in some cell's origin or in
  * the document layout -> assign ids to cells that lack one -> validate.
  */

@@ -20,7 +20,7 @@ export const headerSchema: JsonSchema = {
   required: ["conebook", "title", "seed"],
   properties: {
     conebook: { type: "integer", minimum: 1, description: "Format version of the file." },
-    title: { type: "string", minLength: 1 },
+    title: { type: "string" },
     seed: { type: "integer", description: "Seed of the pseudo-random generator every run starts from." },
     recordedWith: { type: "string", description: "Library version the recorded outputs were produced with." },
     limits: {

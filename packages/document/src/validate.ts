@@ -153,7 +153,9 @@ function validateHeader(doc: ConebookDocument, at: (path: string) => Position, e
     else
       h.dataSlots.forEach((s: unknown, i: number) => {
         const slot = s as Record<string, unknown>;
-        if (typeof slot !== "object" || slot === null || typeof slot.name !== "string") typeError(`dataSlots.${i}.name`, "a string");
+        if (typeof slot !== "object" || slot === null || typeof slot.name !== "string" || slot.name === "") {
+          typeError(`dataSlots.${i}.name`, "a non-empty string");
+        }
       });
   }
   if (typeof h.extra !== "object" || h.extra === null) typeError("extra", "an object of unknown header keys");

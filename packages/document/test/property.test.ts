@@ -18,7 +18,7 @@ describe("round trips of random documents (fast-check)", () => {
         expect(document.cells.map(cellContent)).toEqual(doc.cells.map(cellContent));
         expect(headerJson(document)).toEqual(headerJson(doc));
       }),
-      { numRuns: 400 },
+      { numRuns: 250 },
     );
   });
 
@@ -40,7 +40,7 @@ describe("round trips of random documents (fast-check)", () => {
         expect(reread.document.cells.map(cellContent)).toEqual(next.cells.map(cellContent));
         expect(reread.document.header.libraryVersion).toBe("9.9.9");
       }),
-      { numRuns: 200 },
+      { numRuns: 120 },
     );
   });
 
@@ -56,7 +56,7 @@ describe("round trips of random documents (fast-check)", () => {
         expect(codeSources(document, doc)).toEqual(codeSources(doc, doc).map((s) => s.replace(/\n/g, "\r\n")));
         expect(document.cells.map((c) => c.id)).toEqual(doc.cells.map((c) => c.id));
       }),
-      { numRuns: 200 },
+      { numRuns: 150 },
     );
   });
 });

@@ -20,6 +20,13 @@ export interface CorrectionRecord {
   readonly warnings: readonly string[];
 }
 
+/** Corrected values and the record of the correction. */
+export interface CorrectionResult {
+  /** Corrected values, in the unit of the input values. */
+  readonly values: Float64Array;
+  readonly record: CorrectionRecord;
+}
+
 /**
  * Thrown when a correction cannot be applied to the data given; the message says what was wrong, where,
  * and what would fix it.

@@ -1,0 +1,10 @@
+/**
+ * `npm run bench`: prints this machine's figures beside a peer measured in the same run, with ratios and
+ * whether each target is met. Run on an otherwise idle machine; figures from a loaded machine are noisy.
+ */
+import { machineLine, printTable } from "./harness.js";
+import { wellFunctionsAndFit } from "./sections/well-functions-and-fit.js";
+
+console.log("# Conebook benchmarks");
+console.log(machineLine());
+printTable("Well functions and fitting (aquifer)", wellFunctionsAndFit());
