@@ -64,10 +64,10 @@ export function readHeader(yamlText: string, firstLine: number, file?: string): 
     if (n.range) positions[path] = toPos(n.range[0]);
     if (isMap(n)) {
       for (const pair of n.items) {
-        const key = isScalar(pair.key) ? String(pair.key.value) : String(pair.key);
-        visit(pair.value, path === "" ? key : `${path}.${key}`);
-        if (positions[path === "" ? key : `${path}.${key}`] === undefined && isScalar(pair.key) && pair.key.range)
-          positions[path === "" ? key : `${path}.${key}`] = toPos(pair.key.range[0]);
+        const childPath = (path === "" ? "" : `${path}.`) + (isScalar(pair.key) ? String(pair.key.value) : String(pair.key));
+        visit(pair.value, childPath);
+        // A key with no value (`title:`) has no node of its own: point at the key.
+        if (positions[childPath] === undefined && isScalar(pair.key) && pair.key.range) positions[childPath] = toPos(pair.key.range[0]);
       }
     } else if (isSeq(n)) {
       n.items.forEach((item, i) => visit(item, `${path}.${i}`));
@@ -302,6 +302,17 @@ export function rewriteHeaderYaml(yamlText: string, before: DocumentHeader, afte
       appended.push(piece.toString(YAML_WRITE_OPTIONS).replace(/\n$/, ""));
     } else inPlace = false;
   }
+  const readsAs = (text: string): boolean => {
+    try {
+      const d = parseDocument(text, { uniqueKeys: true });
+      const raw: unknown = d.errors.length > 0 ? undefined : (d.toJS() ?? {});
+      if (!isObject(raw)) return false;
+      const noop = (): void => undefined;
+      return headerSnapshot(headerFromRaw(raw, noop, noop)) === headerSnapshot(after);
+    } catch {
+      return false;
+    }
+  };
   if (inPlace) {
     let text = yamlText;
     for (const e of edits.sort((a, b) => b.start - a.start)) text = text.slice(0, e.start) + e.text + text.slice(e.end);
@@ -309,7 +320,8 @@ export function rewriteHeaderYaml(yamlText: string, before: DocumentHeader, afte
       const body = appended.join("\n").split("\n").join(eol);
       text = text === "" || /(\r\n|\n|\r)$/.test(text) ? text + body + eol : text + eol + body + eol;
     }
-    return text;
+    // A plain scalar can mean something else in its new place (a comma inside a flow mapping): check.
+    if (readsAs(text)) return text;
   }
   for (const c of changes) {
     if (c.after === undefined) doc.deleteIn(c.path);
@@ -319,5 +331,7 @@ export function rewriteHeaderYaml(yamlText: string, before: DocumentHeader, afte
       doc.setIn(c.path, node);
     }
   }
-  return doc.toString(YAML_WRITE_OPTIONS).split("\n").join(eol);
+  const remodelled = doc.toString(YAML_WRITE_OPTIONS).split("\n").join(eol);
+  if (readsAs(remodelled)) return remodelled;
+  return writeHeaderYaml(after).split("\n").join(eol);
 }

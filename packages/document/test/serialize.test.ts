@@ -146,6 +146,15 @@ describe("serializeDocument: regenerates only what changed", () => {
     expect(changedLines(t, serializeDocument({ ...document, header }))).toEqual([[7, "    value: 0.004", "    value: 0.006"]]);
   });
 
+  it("quotes a new value whose plain form would break the flow mapping it sits in", () => {
+    const t = lines("---", "conebook: 1", "title: T", "seed: 1", "parameters:", "  - {name: q, value: 1, description: old}  # keep", "---");
+    const { document } = parseDocument(t);
+    const header = { ...document.header, parameters: [{ ...document.header.parameters[0]!, description: "rate, in L/s: {x}" }] };
+    const out = serializeDocument({ ...document, header });
+    expect(parseDocument(out).document.header.parameters[0]!.description).toBe("rate, in L/s: {x}");
+    expect(out).toContain("# keep");
+  });
+
   it("quotes a new title that YAML would otherwise read as a number", () => {
     const { document } = parseDocument(text);
     const out = serializeDocument({ ...document, header: { ...document.header, title: "1e3" } });
