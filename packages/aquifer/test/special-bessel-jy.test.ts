@@ -15,7 +15,7 @@ const fixture = JSON.parse(
 const functions = { J0: besselJ0, J1: besselJ1, Y0: besselY0, Y1: besselY1 } as const;
 const RELATIVE = 1e-13;
 /** Absolute error allowed near a zero, as a multiple of the envelope M(x) = sqrt(J^2 + Y^2) of the same order. */
-const ENVELOPE = 1e-15;
+const ENVELOPE = 2e-15;
 
 interface Worst {
   error: number;
@@ -66,7 +66,7 @@ describe("Bessel J0, J1, Y0, Y1 against mpmath", () => {
       });
     }
     for (const regime of ["small", "medium", "large", "zeros"]) {
-      it(`${name} stays within 1e-15 of the envelope sqrt(J^2 + Y^2) everywhere in the ${regime} regime`, () => {
+      it(`${name} stays within 2e-15 of the envelope sqrt(J^2 + Y^2) everywhere in the ${regime} regime`, () => {
         const w = worstAbsolute(name, fixture.regimes[regime]!);
         expect(w.error, describeWorst(`${name} ${regime}`, w)).toBeLessThanOrEqual(ENVELOPE);
       });

@@ -2,7 +2,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { parseDocument, serializeDocument, withOutputs } from "../src/index.js";
 import type { Cell, ConebookDocument } from "../src/index.js";
-import { cellContent, documentArb, outputsArb, anyText } from "./arbitraries.js";
+import { cellContent, documentArb, headerArb, outputsArb, anyText } from "./arbitraries.js";
 
 const errorsOf = (text: string) => parseDocument(text).diagnostics.filter((d) => d.severity === "error");
 const headerJson = (doc: ConebookDocument) => JSON.parse(JSON.stringify(doc.header));
@@ -55,6 +55,21 @@ describe("round trips of random documents (fast-check)", () => {
           d.cells.filter((c, i) => c.kind === "code" && !orig.cells[i]!.source.endsWith("\r")).map((c) => c.source);
         expect(codeSources(document, doc)).toEqual(codeSources(doc, doc).map((s) => s.replace(/\n/g, "\r\n")));
         expect(document.cells.map((c) => c.id)).toEqual(doc.cells.map((c) => c.id));
+      }),
+      { numRuns: 150 },
+    );
+  });
+
+  it("rewriting a parsed header into another random header reads back as the new header", () => {
+    fc.assert(
+      fc.property(headerArb, headerArb, fc.boolean(), (a, b, comment) => {
+        let text = serializeDocument({ header: a, cells: [] });
+        if (comment) text = text.replace("\nseed:", "\n# a comment\nseed:");
+        const { document } = parseDocument(text);
+        const out = serializeDocument({ ...document, header: b });
+        const reread = parseDocument(out).document;
+        expect(headerJson(reread)).toEqual(headerJson({ header: b, cells: [] }));
+        expect(serializeDocument(reread)).toBe(out);
       }),
       { numRuns: 150 },
     );
