@@ -257,6 +257,7 @@ function flowScalarLists(node: unknown): void {
 
 /** One-line YAML for a scalar value, or undefined when it needs more than a line. */
 function scalarYaml(value: unknown): string | undefined {
+  if (value === undefined) return undefined;
   const s = stringify(value, YAML_WRITE_OPTIONS).replace(/\n$/, "");
   return s.includes("\n") ? undefined : s;
 }

@@ -128,6 +128,18 @@ export const messages = {
     code: "narrative-unsafe",
     message: `narrative cell ${q(id)} would not read back as written: ${detail}`,
   }),
+  attributeLineBreak: (key: string, id: string) => ({
+    code: "attribute-line-break",
+    message: `attribute ${q(key)} of cell ${q(id)} contains a line break; attribute values must fit on the fence line, so remove it`,
+  }),
+  outputsUnknownCell: (id: string) => ({
+    code: "outputs-unknown-cell",
+    message: `outputs were given for cell ${q(id)}, but no cell has that id; check the ids the run used`,
+  }),
+  outputsForNarrative: (id: string) => ({
+    code: "outputs-for-narrative",
+    message: `outputs were given for narrative cell ${q(id)}; only code, data and chart cells record outputs`,
+  }),
   codeLanguageModel: (id: string, lang: string) => ({
     code: "code-language",
     message: `code cell ${q(id)} has language ${q(lang)}; only "ts" is supported`,

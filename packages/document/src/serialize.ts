@@ -14,7 +14,7 @@ import { messages } from "./messages.js";
 import { writeOutputs } from "./outputs.js";
 import { splitBody } from "./parse.js";
 import { isBlank, splitLines, stableStringify } from "./text.js";
-import type { Cell, ChartCell, ConebookDocument, DocumentHeader } from "./types.js";
+import type { Cell, ChartCell, ConebookDocument, DocumentHeader, Position } from "./types.js";
 
 export interface SerializeOptions {
   /**
@@ -82,12 +82,12 @@ function writeNarrative(cell: Cell, eol: string, writeIds: boolean): string {
     return narrativeMarker(cell.id) + o.head.slice(splitLines(o.head)[0]!.end) + o.body;
   }
   const source = trimBlankLines(cell.source);
-  checkNarrative(cell.id, source, eol);
+  checkNarrative(cell.id, source, eol, o?.start ?? cell.sourceStart);
   return source === "" ? narrativeMarker(cell.id) : narrativeMarker(cell.id) + eol + eol + source;
 }
 
 /** Throws unless `source`, written as a narrative cell between other cells, reads back as exactly itself. */
-function checkNarrative(id: string, source: string, eol: string): void {
+function checkNarrative(id: string, source: string, eol: string, at: Position): void {
   const probeHeader = `---${eol}---`;
   const text = `${probeHeader}${eol}${eol}${narrativeMarker(id)}${eol}${eol}${source}${eol}${eol}\`\`\`ts code:narrative-probe${eol}\`\`\`${eol}`;
   const { cells } = splitBody(text, probeHeader.length);
@@ -96,11 +96,7 @@ function checkNarrative(id: string, source: string, eol: string): void {
     cells.length > 2 || (cells.length === 2 && cells[1]!.id !== "narrative-probe")
       ? "its text contains a Conebook cell fence or narrative marker at the top level; indent that example by four spaces or change its info string"
       : "it leaves a code fence or HTML block open, which would swallow the cells after it; close the fence or block";
-  throw new DocumentError(messages.narrativeUnsafe(id, detail), cell0Start(cells), undefined);
-}
-
-function cell0Start(cells: Cell[]): { line: number; column: number } {
-  return cells[0]?.sourceStart ?? { line: 1, column: 1 };
+  throw new DocumentError(messages.narrativeUnsafe(id, detail), at);
 }
 
 function fenceLang(cell: Exclude<Cell, { kind: "narrative" }>): string {
@@ -116,10 +112,7 @@ function cellAttributes(cell: Exclude<Cell, { kind: "narrative" }>): [string, st
   for (const [k, v] of Object.entries(cell.attributes ?? {})) attrs.push([k, v]);
   for (const [k, v] of attrs) {
     if (/[\r\n]/.test(v)) {
-      throw new DocumentError(
-        { code: "attribute-line-break", message: `attribute ${JSON.stringify(k)} of cell ${JSON.stringify(cell.id)} contains a line break; attribute values must fit on the fence line` },
-        cell.origin?.start ?? { line: 1, column: 1 },
-      );
+      throw new DocumentError(messages.attributeLineBreak(k, cell.id), cell.origin?.start ?? { line: 1, column: 1 });
     }
   }
   return attrs;

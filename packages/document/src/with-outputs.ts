@@ -1,4 +1,5 @@
 import { DocumentError } from "./errors.js";
+import { messages } from "./messages.js";
 import type { Cell, CellOutput, ConebookDocument } from "./types.js";
 
 export interface WithOutputsOptions {
@@ -21,16 +22,10 @@ export function withOutputs(
   for (const id of Object.keys(outputsByCellId)) {
     const cell = byId.get(id);
     if (!cell) {
-      throw new DocumentError(
-        { code: "outputs-unknown-cell", message: `outputs were given for cell ${JSON.stringify(id)}, but no cell has that id; check the ids the run used` },
-        { line: 1, column: 1 },
-      );
+      throw new DocumentError(messages.outputsUnknownCell(id), { line: 1, column: 1 });
     }
     if (cell.kind === "narrative" && outputsByCellId[id]!.length > 0) {
-      throw new DocumentError(
-        { code: "outputs-on-narrative", message: `outputs were given for narrative cell ${JSON.stringify(id)}; only code, data and chart cells record outputs` },
-        cell.origin?.start ?? cell.sourceStart,
-      );
+      throw new DocumentError(messages.outputsForNarrative(id), cell.origin?.start ?? cell.sourceStart);
     }
   }
   const cells = doc.cells.map((cell): Cell => {

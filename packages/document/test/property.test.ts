@@ -60,7 +60,7 @@ describe("round trips of random documents (fast-check)", () => {
     );
   });
 
-  it("rewriting a parsed header into another random header reads back as the new header", () => {
+  it("rewriting a parsed header into another random header reads back as the new header, keeping comments", () => {
     fc.assert(
       fc.property(headerArb, headerArb, fc.boolean(), (a, b, comment) => {
         let text = serializeDocument({ header: a, cells: [] });
@@ -70,6 +70,7 @@ describe("round trips of random documents (fast-check)", () => {
         const reread = parseDocument(out).document;
         expect(headerJson(reread)).toEqual(headerJson({ header: b, cells: [] }));
         expect(serializeDocument(reread)).toBe(out);
+        if (comment) expect(out).toContain("\n# a comment\n");
       }),
       { numRuns: 150 },
     );

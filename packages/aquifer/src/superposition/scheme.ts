@@ -1,0 +1,189 @@
+/**
+ * Superposition in space and time: drawdown at one observation point caused by several pumping wells, each with
+ * its own rate schedule, in an aquifer bounded by up to two straight boundaries (image wells, boundaries.ts).
+ *
+ *   s(x, t) = sum_wells sum_images sign_j sum_i (Q_i - Q_{i-1}) s1(|x - x_j|, t - t_i)
+ *
+ * with s1 the base model's drawdown for a unit rate (m per m3/d). A strip's infinite image series is summed row by
+ * row (row m: image m of each of the two chains of every well) until two rows in a row each change the drawdown by
+ * less than `tolerance` times the sum of the absolute contributions so far, at every time. The sum of absolute
+ * contributions, not the total, is the scale because the total is 0 on a constant-head line.
+ * Source: superposition of linear solutions; images after Ferris et al. (1962), USGS Water-Supply Paper 1536-E.
+ */
+import type { DrawdownModel } from "../models/index.js";
+import { imageLayout, nextStripImage, checkBoundaries, type ImageLayout, type ImageWell, type StraightBoundary } from "./boundaries.js";
+import { SuperpositionInputError } from "./errors.js";
+import { distanceBetween, isFinitePoint, type Point } from "./plane.js";
+import { addScheduleResponse, rateChanges, type PumpingStep, type RateChanges } from "./rate-schedule.js";
+
+/** A pumping well placed by coordinates (m) with its rate schedule. */
+export interface PumpingWell {
+  readonly name: string;
+  readonly x: number;
+  readonly y: number;
+  readonly steps: readonly PumpingStep[];
+}
+
+/** Default relative truncation tolerance of strip image series. */
+export const STRIP_TOLERANCE = 1e-9;
+/** Most image rows summed for a strip before giving up. */
+export const STRIP_MAX_ROWS = 20000;
+
+/** A checked scheme: wells with rate changes and image layouts, ready to evaluate. */
+export interface PreparedScheme {
+  readonly wells: readonly { readonly name: string; readonly point: Point; readonly changes: RateChanges; readonly layout: ImageLayout }[];
+  readonly boundaries: readonly StraightBoundary[];
+  readonly tolerance: number;
+}
+
+/** What one evaluation used. */
+export interface SchemeEvaluation {
+  /** Drawdown, m, one per time. */
+  readonly drawdown: Float64Array;
+  /** d s / d p_k per parameter (m per base unit), when asked for. */
+  readonly jacobian: Float64Array[] | null;
+  /** Image wells summed over all pumping wells. */
+  readonly imagesUsed: number;
+  /** Strip rows summed (0 without a strip). */
+  readonly rows: number;
+  /** Largest relative size of the last row summed (0 without a strip). */
+  readonly lastRowRelative: number;
+}
+
+/** Checks wells and boundaries (observation points are checked when evaluated). */
+export function prepareScheme(
+  where: string,
+  wells: readonly PumpingWell[],
+  boundaries: readonly StraightBoundary[] = [],
+  tolerance: number = STRIP_TOLERANCE,
+): PreparedScheme {
+  if (!Array.isArray(wells) || wells.length === 0) {
+    throw new SuperpositionInputError(`${where}: no pumping wells given; pass [{ name, x, y, steps: [{ start, rate }] }].`);
+  }
+  if (!(Number.isFinite(tolerance) && tolerance > 0 && tolerance < 1)) {
+    throw new SuperpositionInputError(`${where}: tolerance is ${tolerance}; give a relative tolerance between 0 and 1, e.g. 1e-9.`);
+  }
+  const names = new Set<string>();
+  const points = wells.map((w, i) => {
+    const name = typeof w?.name === "string" && w.name !== "" ? w.name : `#${i + 1}`;
+    if (names.has(name)) throw new SuperpositionInputError(`${where}: two pumping wells are named "${name}"; give each its own name.`);
+    names.add(name);
+    if (!isFinitePoint(w)) throw new SuperpositionInputError(`${where}: pumping well "${name}" needs finite coordinates x and y (m).`);
+    return { name, point: { x: w.x, y: w.y } as Point };
+  });
+  checkBoundaries(where, boundaries, points, []);
+  const prepared = wells.map((w, i) => ({
+    name: points[i]!.name,
+    point: points[i]!.point,
+    changes: rateChanges(w.steps, `${where}: pumping well "${points[i]!.name}"`),
+    layout: imageLayout(where, points[i]!.point, boundaries),
+  }));
+  return { wells: prepared, boundaries, tolerance };
+}
+
+/** Distance from an image (or real well) to the observation point, checked to be > 0. */
+function sourceDistance(where: string, wellName: string, source: Point, point: Point, isReal: boolean): number {
+  const r = distanceBetween(source, point);
+  if (!(r > 0)) {
+    throw new SuperpositionInputError(
+      `${where}: the observation point coincides with ${isReal ? `pumping well "${wellName}"` : `an image of well "${wellName}"`}; ` +
+        "for drawdown in a pumped well place the point at the well's effective radius from its centre.",
+    );
+  }
+  return r;
+}
+
+/**
+ * Drawdown (m) at `point` and times t (d) for parameters p, and the Jacobian when `withJacobian` (the base model
+ * must have one). Throws SuperpositionInputError for points outside the aquifer and when a strip series does not
+ * converge within STRIP_MAX_ROWS rows.
+ */
+export function evaluateScheme(
+  where: string,
+  model: DrawdownModel,
+  scheme: PreparedScheme,
+  p: ArrayLike<number>,
+  point: Point,
+  t: ArrayLike<number>,
+  withJacobian: boolean,
+  out?: Float64Array,
+): SchemeEvaluation {
+  if (!isFinitePoint(point)) throw new SuperpositionInputError(`${where}: the observation point needs finite x and y (m).`);
+  checkBoundaries(where, scheme.boundaries, [], [{ name: "observation", point }]);
+  if (withJacobian && typeof model.jacobian !== "function") {
+    throw new SuperpositionInputError(`${where}: model "${model.id}" has no analytic Jacobian.`);
+  }
+  const n = t.length;
+  const s = out ?? new Float64Array(n);
+  if (s.length !== n) throw new SuperpositionInputError(`${where}: output array has length ${s.length} for ${n} times.`);
+  s.fill(0);
+  const jacobian = withJacobian ? model.parameters.map(() => new Float64Array(n)) : null;
+  const magnitude = new Float64Array(n);
+  const term = new Float64Array(n);
+  const termJacobian = withJacobian ? model.parameters.map(() => new Float64Array(n)) : undefined;
+  let imagesUsed = 0;
+
+  const add = (wellName: string, changes: RateChanges, source: Point, sign: number, isReal: boolean): void => {
+    const r = sourceDistance(where, wellName, source, point, isReal);
+    term.fill(0);
+    if (termJacobian) for (const c of termJacobian) c.fill(0);
+    addScheduleResponse(model, p, r, changes, sign, t, term, termJacobian);
+    for (let i = 0; i < n; i++) {
+      s[i]! += term[i]!;
+      magnitude[i]! += Math.abs(term[i]!);
+    }
+    if (jacobian && termJacobian) {
+      for (let k = 0; k < jacobian.length; k++) {
+        const target = jacobian[k]!;
+        const source = termJacobian[k]!;
+        for (let i = 0; i < n; i++) target[i]! += source[i]!;
+      }
+    }
+    if (!isReal) imagesUsed++;
+  };
+
+  const strips: { name: string; changes: RateChanges; chains: ImageWell[]; layout: Extract<ImageLayout, { kind: "strip" }> }[] = [];
+  for (const w of scheme.wells) {
+    add(w.name, w.changes, w.point, 1, true);
+    if (w.layout.kind === "finite") {
+      for (const image of w.layout.images) add(w.name, w.changes, image, image.sign, false);
+    } else if (w.layout.kind === "strip") {
+      const real: ImageWell = { ...w.point, sign: 1, order: 0 };
+      strips.push({ name: w.name, changes: w.changes, chains: [real, real], layout: w.layout });
+    }
+  }
+
+  let rows = 0;
+  let lastRowRelative = 0;
+  if (strips.length > 0) {
+    const before = new Float64Array(n);
+    let quietRows = 0;
+    while (quietRows < 2) {
+      if (rows >= STRIP_MAX_ROWS) {
+        throw new SuperpositionInputError(
+          `${where}: the strip image series has not converged to a relative tolerance of ${scheme.tolerance} after ${rows} rows ` +
+            `(last row ${lastRowRelative.toExponential(2)} of the total); the strip is narrow for the times asked for. ` +
+            "Loosen the tolerance, shorten the times, or check the strip width.",
+        );
+      }
+      rows++;
+      before.set(s);
+      for (const strip of strips) {
+        for (let c = 0; c < 2; c++) {
+          const image = nextStripImage(scheme.boundaries, strip.layout.chains[c]!, rows, strip.chains[c]!);
+          strip.chains[c] = image;
+          add(strip.name, strip.changes, image, image.sign, false);
+        }
+      }
+      lastRowRelative = 0;
+      for (let i = 0; i < n; i++) {
+        const change = Math.abs(s[i]! - before[i]!);
+        const scale = magnitude[i]!;
+        if (change > 0 && scale > 0) lastRowRelative = Math.max(lastRowRelative, change / scale);
+        else if (change > 0) lastRowRelative = Infinity;
+      }
+      quietRows = lastRowRelative <= scheme.tolerance ? quietRows + 1 : 0;
+    }
+  }
+  return { drawdown: s, jacobian, imagesUsed, rows, lastRowRelative };
+}
