@@ -9,3 +9,5 @@ export * from "./wells/index.js";
 export * from "./models/index.js";
 export * from "./data/index.js";
 export * from "./fit/index.js";
+export * from "./corrections/index.js";
+export * from "./diagnostics/index.js";

@@ -75,7 +75,7 @@ describe("Bourdet et al. (1989) log derivative on Theis drawdown", () => {
         expect(relDiff(result.derivative[p]!, f.logDerivative[i]!), `t = ${f.times[i]}`).toBeLessThan(1e-3);
       }
     });
-    // Late time: the derivative tends to Q/(4 pi T) (u = 3.2e-5 at t = 10 d).
+    // Late time: the derivative tends to Q/(4 pi T) (last central point: t = 7.9 d, u = 4.0e-5).
     const last = result.indices.length - 1 - result.oneSidedCount / 2;
     expect(relDiff(result.derivative[last]!, coef)).toBeLessThan(1e-4);
   });

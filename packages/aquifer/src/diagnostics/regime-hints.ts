@@ -254,6 +254,13 @@ export function regimeHints(
     const late = flats[a + 1]!;
     const ratio = late.level! / early.level!;
     if (ratio >= ratioLow && ratio <= ratioHigh) {
+      const lateIndex = hints.indexOf(late);
+      hints[lateIndex] = {
+        ...late,
+        message:
+          late.message +
+          " If the rise before it is a barrier boundary, this later level is 2 Q/(4 pi T): take T from the earlier flat level.",
+      };
       hints.push({
         kind: "doubling",
         timeStart: early.timeStart,
@@ -267,7 +274,7 @@ export function regimeHints(
           "doubling",
           `between the flat stretch ending at t = ${fmt(early.timeEnd)} and the one starting at t = ${fmt(late.timeStart)}`,
           "",
-          `from ${fmt(early.level!)} to ${fmt(late.level!)} ${options.lengthUnit} (ratio ${fmt(ratio)}, about 2)`,
+          `from ${fmt(early.level!)} to ${fmt(late.level!)} ${options.lengthUnit} (ratio ${ratio.toFixed(2)}; a barrier gives 2)`,
         ),
       });
     }
