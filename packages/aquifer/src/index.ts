@@ -11,3 +11,5 @@ export * from "./data/index.js";
 export * from "./fit/index.js";
 export * from "./corrections/index.js";
 export * from "./diagnostics/index.js";
+export * from "./steptest/index.js";
+export * from "./slug/index.js";

@@ -185,3 +185,28 @@ export function besselY1(x: number): number {
   // Y1 = A [P sin(chi) + Q cos(chi)], chi = x - 3pi/4.
   return amplitude * SQRT_HALF * (-p * (s + c) + q * (s - c));
 }
+
+/** The Hankel-form amplitudes of orders 0 and 1 at one argument (x > 8), dimensionless. */
+export interface HankelAmplitudes {
+  readonly p0: number;
+  readonly q0: number;
+  readonly p1: number;
+  readonly q1: number;
+}
+
+/**
+ * P0, Q0, P1, Q1 of H_n^(1)(x) = sqrt(2/(pi x)) (P_n + i Q_n) e^(i (x - n pi/2 - pi/4)) (DLMF 10.17.3-4) for
+ * x > 8: smooth, non-oscillating functions of x, for quantities such as |x H0 - a H1|^2 whose oscillations cancel
+ * exactly. Accuracy: as the module note (the same Chebyshev sums as besselJ0...besselY1 use for x > 8).
+ * @throws RangeError for x <= 8 (the expansion is not used there).
+ */
+export function besselHankelAmplitudes(x: number): HankelAmplitudes {
+  if (!(x > CUT)) throw new RangeError(`besselHankelAmplitudes(x): x = ${x}; the Hankel form here needs x > ${CUT}.`);
+  const t = (2 * CUT * CUT) / (x * x) - 1;
+  return {
+    p0: chebyshev(P0_LARGE, t),
+    q0: (CUT / x) * chebyshev(Q0_LARGE, t),
+    p1: chebyshev(P1_LARGE, t),
+    q1: (CUT / x) * chebyshev(Q1_LARGE, t),
+  };
+}

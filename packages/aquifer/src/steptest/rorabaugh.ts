@@ -111,7 +111,7 @@ export function rorabaughStepTest(input: StepDrawdownInput, options: RorabaughOp
     fittedVariable: "s_w (m) against Q (m3/d)",
     points: N,
     dof,
-    wellCondition: Math.abs(n - 2) <= 0.05 ? waltonWellCondition(C * Math.pow(qm, n - 2)) : null,
+    wellCondition: Math.abs(n - 2) <= 0.05 ? waltonWellCondition(C) : null,
     notes: [
       "Rorabaugh (1953): s_w = B Q + C Q^n; B, C, n by Levenberg-Marquardt least squares on the drawdowns " +
         `(stopped: ${lm.reason}, ${lm.iterations} iterations), started from Jacob's line with n = 2.`,

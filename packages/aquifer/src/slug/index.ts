@@ -1,0 +1,34 @@
+/**
+ * Slug tests: Hvorslev (1951), Bouwer & Rice (1976) with Van Rooy's (1988) coefficients, and the
+ * Cooper, Bredehoeft & Papadopulos (1967) curve with a fit of T and S. Base units: m, d.
+ */
+export { SlugTestInputError } from "./errors.js";
+export {
+  lengthInMetres,
+  normalizeSlugRecord,
+  type NormalizedSlugRecord,
+  type SlugFitRange,
+  type SlugTestRecord,
+} from "./slug-data.js";
+export { fitRecoveryLine, type RecoveryLine } from "./log-linear-recovery.js";
+export {
+  hvorslevSlugTest,
+  type HvorslevGeometry,
+  type SlugConductivityResult,
+  type SlugLineOptions,
+} from "./hvorslev.js";
+export {
+  BOUWER_RICE_RATIO_RANGE,
+  bouwerRiceCoefficients,
+  bouwerRiceLnReRw,
+  bouwerRiceSlugTest,
+  type BouwerRiceGeometry,
+} from "./bouwer-rice.js";
+export { cbpDenominator, cbpNormalizedHead } from "./cooper-bredehoeft-papadopulos.js";
+export {
+  cooperBredehoeftPapadopulosFit,
+  type CbpEstimate,
+  type CbpFitOptions,
+  type CbpFitResult,
+  type CbpGeometry,
+} from "./cbp-fit.js";
