@@ -12,3 +12,4 @@ export { stripTypes, CellSyntaxError, type StrippedCell } from "./strip-types.js
 export { parseDataTable, DataCellError, type DataTable, type ReadFile } from "./data-cells.js";
 export { type ControlRecord } from "./controls.js";
 export * from "./charts/index.js";
+export { DEFAULT_RTOL, checkDataPins, compareOutputs, numbersAgree, recordedOutputs, relativeDifference, type CompareOptions, type DifferenceKind, type OutputDifference, type PinCheck } from "./verify.js";

@@ -1,0 +1,61 @@
+/**
+ * The `conebook` command: picks the subcommand, shows help, and turns errors into messages and exit codes
+ * (UsageError and InputError: the message and 2; anything else: an internal error, also 2, with its stack).
+ */
+import { EXIT, InputError, UsageError } from "./errors.js";
+import { EXPORT_HELP, exportCommand } from "./commands/export.js";
+import { NEW_HELP, newCommand } from "./commands/new.js";
+import { RUN_HELP, runCommand } from "./commands/run.js";
+import { VERIFY_HELP, verifyCommand } from "./commands/verify.js";
+import type { Io } from "./io.js";
+import { TOOL_VERSION } from "./versions.js";
+
+const COMMANDS: Record<string, { help: string; run: (argv: readonly string[], io: Io) => Promise<number> }> = {
+  run: { help: RUN_HELP, run: runCommand },
+  verify: { help: VERIFY_HELP, run: verifyCommand },
+  new: { help: NEW_HELP, run: newCommand },
+  export: { help: EXPORT_HELP, run: exportCommand },
+};
+
+export const MAIN_HELP = `Usage: conebook COMMAND [options]
+
+Commands:
+  run FILE       run every cell of a document; --write records the outputs
+  verify FILE    rerun a document and compare with its recorded outputs
+  new TEMPLATE   a new document from a template (-o FILE, --set, --data)
+  export FILE    a self-contained HTML report (-o report.html)
+
+conebook COMMAND --help shows a command's options. conebook --version shows the version.
+Exit codes: 0 ok; 1 a check failed; 2 usage or input error.`;
+
+/** Runs the command line `argv` (without node and the script); returns the exit code. */
+export async function main(argv: readonly string[], io: Io): Promise<number> {
+  const [name, ...rest] = argv;
+  if (name === undefined || name === "--help" || name === "-h" || name === "help") {
+    io.out(MAIN_HELP);
+    return name === undefined ? EXIT.inputError : EXIT.ok;
+  }
+  if (name === "--version") {
+    io.out(`conebook ${TOOL_VERSION}`);
+    return EXIT.ok;
+  }
+  const command = COMMANDS[name];
+  if (!command) {
+    io.err(`conebook: unknown command ${JSON.stringify(name)}; the commands are ${Object.keys(COMMANDS).join(", ")} (see conebook --help)`);
+    return EXIT.inputError;
+  }
+  if (rest.includes("--help") || rest.includes("-h")) {
+    io.out(command.help);
+    return EXIT.ok;
+  }
+  try {
+    return await command.run(rest, io);
+  } catch (e) {
+    if (e instanceof UsageError || e instanceof InputError) {
+      io.err(`conebook ${name}: ${e.message}`);
+      return EXIT.inputError;
+    }
+    io.err(`conebook ${name}: internal error (please report it): ${e instanceof Error ? (e.stack ?? e.message) : String(e)}`);
+    return EXIT.inputError;
+  }
+}

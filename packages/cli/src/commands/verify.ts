@@ -1,0 +1,116 @@
+/**
+ * `conebook verify FILE [--rtol 1e-9] [--atol 0]`: reruns the document with the values recorded in it and
+ * compares the fresh outputs with the recorded ones (kernel `compareOutputs`). Exit 0 when everything matches,
+ * 1 on any difference, a cell that now fails, or a data file whose bytes changed since they were pinned.
+ */
+import type { CellOutput } from "@conebook/document";
+import { DEFAULT_RTOL, compareOutputs, recordedOutputs, type OutputDifference } from "@conebook/kernel";
+import { onePositional, parseArgs, type OptionSpec } from "../args.js";
+import { EXIT, UsageError, place } from "../errors.js";
+import { cellLine, execute } from "../execute.js";
+import type { Io } from "../io.js";
+import { checkPins, loadDocument, pinChangedMessage } from "../load.js";
+import { recordedControlValues, runOverrides } from "../settings.js";
+import { AQUIFER_VERSION } from "../versions.js";
+
+export const VERIFY_OPTIONS: readonly OptionSpec[] = [
+  { name: "rtol", kind: "value" },
+  { name: "atol", kind: "value" },
+];
+
+export const VERIFY_HELP = `Usage: conebook verify FILE [--rtol ${DEFAULT_RTOL}] [--atol 0]
+
+Reruns the document FILE with the template parameters and control values recorded in it, and compares the
+fresh outputs with the recorded ones: numbers within a relative tolerance, text exactly, tables cell by cell,
+charts by their specification and inline data. Prints each difference with the cell id, its line in FILE, the
+place inside the output, and the recorded and fresh values.
+
+Options:
+  --rtol R   relative tolerance for numbers, |a - b| <= R max(|a|, |b|) + A (default ${DEFAULT_RTOL}: runs are
+             deterministic, so this only absorbs reordered floating-point work, far below any measurement)
+  --atol A   absolute tolerance for numbers, in their own units (default 0)
+  --help     show this help
+
+Exit codes: 0 all outputs match; 1 a difference, a failing cell or a changed data file; 2 usage or input error.`;
+
+const MAX_SHOWN_PER_CELL = 8;
+
+function tolerance(args: Map<string, string>, name: string, fallback: number): number {
+  const raw = args.get(name);
+  if (raw === undefined) return fallback;
+  const v = Number(raw);
+  if (raw.trim() === "" || !Number.isFinite(v) || v < 0) {
+    throw new UsageError(`--${name} must be a number >= 0 (for example --${name} 1e-9), got ${JSON.stringify(raw)}`, "verify");
+  }
+  return v;
+}
+
+function shownValue(v: unknown): string {
+  if (v === undefined) return "nothing";
+  if (typeof v === "number") return String(v);
+  const s = JSON.stringify(v) ?? String(v);
+  return s.length > 80 ? `${s.slice(0, 79)}…` : s;
+}
+
+/** One line for a difference: where, what was recorded, what is there now. */
+export function differenceLine(shown: string, line: number, d: OutputDifference): string {
+  const head = `${place(shown, line)}: cell ${d.cellId}: outputs${d.path}`;
+  const note = d.note ? ` (${d.note})` : "";
+  switch (d.kind) {
+    case "missing":
+      return `${head}: recorded ${shownValue(d.recorded)}, now missing`;
+    case "extra":
+      return `${head}: not recorded, now ${shownValue(d.fresh)}${note}`;
+    case "error":
+      return `${head}: recorded ${shownValue(d.recorded)}, now an error${note}`;
+    default:
+      return `${head}: recorded ${shownValue(d.recorded)}, now ${shownValue(d.fresh)}${note}`;
+  }
+}
+
+/** Runs the command; returns the exit code. */
+export async function verifyCommand(argv: readonly string[], io: Io): Promise<number> {
+  const args = parseArgs(argv, VERIFY_OPTIONS, "verify");
+  const file = onePositional(args, "a document FILE", "verify");
+  const rtol = tolerance(args.values, "rtol", DEFAULT_RTOL);
+  const atol = tolerance(args.values, "atol", 0);
+  const loaded = await loadDocument(file, io.cwd);
+  for (const w of loaded.warnings) io.err(`${place(w.file ?? loaded.shown, w.line, w.column)}: warning: ${w.message}`);
+  const doc = loaded.document;
+  const recordedWith = doc.header.libraryVersion;
+
+  const { changed } = await checkPins(loaded);
+  if (changed.length > 0) {
+    for (const c of changed) io.out(pinChangedMessage(loaded.shown, c));
+    io.out(`${loaded.shown}: not verified: ${changed.length} data file${changed.length === 1 ? "" : "s"} changed, so the recorded outputs no longer describe the data; restore the file or rerun with --write after pinning it`);
+    return EXIT.checkFailed;
+  }
+
+  const recorded = recordedOutputs(doc);
+  const result = await execute(loaded, runOverrides(recordedControlValues(doc), doc.header.parameters, {}), io);
+  const diffs = compareOutputs(recorded, result.outputs, { rtol, atol });
+  const cells = Object.keys(result.outputs).length;
+  const outputCount = Object.values(recorded).reduce((n, list: CellOutput[]) => n + list.length, 0);
+  const versionNote =
+    recordedWith === AQUIFER_VERSION ? `aquifer ${AQUIFER_VERSION}` : `recorded with aquifer ${recordedWith ?? "(unknown version)"}, now ${AQUIFER_VERSION}`;
+
+  if (diffs.length === 0) {
+    io.out(`${loaded.shown}: verified: all ${outputCount} recorded outputs of ${cells} cells match (rtol ${rtol}${atol ? `, atol ${atol}` : ""}; ${versionNote})`);
+    return EXIT.ok;
+  }
+
+  const byCell = new Map<string, OutputDifference[]>();
+  for (const d of diffs) byCell.set(d.cellId, [...(byCell.get(d.cellId) ?? []), d]);
+  const lineOf = new Map(doc.cells.map((c) => [c.id, cellLine(c)]));
+  for (const [cellId, list] of byCell) {
+    for (const d of list.slice(0, MAX_SHOWN_PER_CELL)) io.out(differenceLine(loaded.shown, lineOf.get(cellId) ?? 1, d));
+    if (list.length > MAX_SHOWN_PER_CELL) io.out(`  … and ${list.length - MAX_SHOWN_PER_CELL} more differences in cell ${cellId}`);
+  }
+  if (recordedWith === undefined) {
+    io.out(`${loaded.shown} has no recorded outputs (no recordedWith in its header); record them with \`conebook run ${loaded.shown} --write\``);
+  } else if (recordedWith !== AQUIFER_VERSION) {
+    io.out(`${loaded.shown}: recorded with aquifer ${recordedWith}, now ${AQUIFER_VERSION}, and results differ`);
+  }
+  io.out(`${loaded.shown}: not verified: ${diffs.length} difference${diffs.length === 1 ? "" : "s"} in ${byCell.size} of ${cells} cells (rtol ${rtol}${atol ? `, atol ${atol}` : ""})`);
+  return EXIT.checkFailed;
+}
