@@ -12,31 +12,62 @@ import {
   convert,
   convertArray,
   cooperJacobLine,
+  cooperJacobValidity,
+  createObservationSeries,
   describeUnit,
+  bourdetDerivative,
+  dimensionName,
+  estimateStaticLevel,
   expint1,
   expint1Scaled,
+  fitModel,
   getModel,
   hantushJacobDrawdown,
   leakageFactorFromLeakance,
   leakanceFromLeakageFactor,
+  logResample,
   modelIds,
+  parseObservationCsv,
+  parseUnit,
+  regimeHints,
+  removeStaticLevel,
+  SeriesError,
+  startingValues,
   studentTQuantile,
   theisDrawdown,
   theisMatchPoint,
   theisTypeCurve,
   thiemDrawdown,
   thiemTwoWells,
+  toBaseUnits,
+  transmissivityFromDerivativeLevel,
+  type BourdetOptions,
+  type FitOptions,
+  type ObservationCsvOptions,
+  type ObservationSeries,
+  type ObservationWell,
 } from "@conebook/aquifer";
 import {
+  ArgumentError,
+  arrayOf,
   booleanArg,
+  booleansArg,
   finite,
+  mapOf,
   nonNegative,
+  nullArg,
   numberArg,
   numbersArg,
+  oneOf,
   optional,
+  pickArg,
   positive,
+  quantityArg,
+  rangeArg,
   recordArg,
+  refine,
   stringArg,
+  stringsArg,
   type Checked,
   type Validator,
 } from "./validators.js";
@@ -97,6 +128,206 @@ const cooperJacobOptions = recordArg({
 });
 
 const matchPointInput = recordArg({ Q: positive, r: positive, W: positive, u: positive, s: positive, t: positive });
+
+// ---- Argument shapes of the data and fitting functions -------------------------------------------------------
+
+const modelIdArg = stringArg(modelIds);
+const geometryArg = recordArg({ r: positive, Q: finite });
+/** Times or drawdowns as the aquifer functions take them; they report non-finite entries with the point index. */
+const samples = numbersArg({ allowNonFinite: true }, 0);
+
+/** A Q that may be null: toBaseUnits gives null for a record whose rate follows a schedule of several steps. */
+const rateOrNull: Validator<number | null> = {
+  expects: "a finite number, or null for a stepped rate",
+  check(value, at) {
+    return value === null ? null : finite.check(value, at);
+  },
+};
+
+const wellFields = recordArg({
+  name: optional(stringArg()),
+  geometry: optional(geometryArg),
+  r: optional(positive),
+  Q: optional(rateOrNull),
+  t: samples,
+  s: samples,
+  weights: optional(samples),
+  mask: optional(booleansArg()),
+  steps: optional(recordArg({ start: samples, rate: samples })),
+});
+
+/**
+ * One observation well for a fit: `{ name, geometry: { r, Q }, t, s, weights?, mask? }` (t in d, s and r in m,
+ * Q in m3/d), or the same with r and Q at the top level, so that the result of aq.toBaseUnits can be passed
+ * as it is.
+ */
+const wellArg: Validator<ObservationWell> = refine(wellFields, `${wellFields.expects} (geometry or r and Q)`, (w, at) => {
+  if (w.Q === null) {
+    throw new ArgumentError(`${at} has Q = null: its pumping rate follows a schedule of several steps; fitModel takes constant-rate records (give Q in m3/d)`);
+  }
+  if (w.geometry && (w.r !== undefined || w.Q !== undefined)) {
+    throw new ArgumentError(`${at} gives both geometry and r/Q; give the distance and rate once, either as geometry: { r, Q } or as r and Q`);
+  }
+  const geometry = w.geometry ?? (w.r !== undefined && w.Q !== undefined ? { r: w.r, Q: w.Q } : undefined);
+  if (!geometry) throw new ArgumentError(`${at} has no distance and rate; give geometry: { r, Q } (m, m3/d) or r and Q`);
+  const well: { -readonly [K in keyof ObservationWell]: ObservationWell[K] } = { name: w.name ?? "", geometry, t: w.t, s: w.s };
+  if (w.weights) well.weights = w.weights;
+  if (w.mask) well.mask = w.mask;
+  return well;
+});
+
+const fitOptionsArg = refine(
+  recordArg({
+    model: modelIdArg,
+    wells: arrayOf(wellArg, 1),
+    start: optional(mapOf(finite)),
+    fixed: optional(mapOf(finite)),
+    bounds: optional(mapOf(rangeArg)),
+    jacobian: optional(stringArg(["analytic", "forward", "central"])),
+    ftol: optional(positive),
+    xtol: optional(positive),
+    gtol: optional(positive),
+    maxEvaluations: optional(numberArg({ min: 1, max: 100000, integer: true })),
+    correlationWarning: optional(numberArg({ min: 0, max: 1, exclusiveMin: true })),
+  }),
+  "fit options { model, wells, start?, fixed?, bounds?, jacobian?, ftol?, xtol?, gtol?, maxEvaluations?, correlationWarning? }",
+  (o): FitOptions => ({ ...o, model: getModel(o.model), jacobian: o.jacobian as FitOptions["jacobian"] }),
+);
+
+const rateStepsArg = recordArg({ unit: stringArg(), steps: arrayOf(recordArg({ start: finite, rate: finite }), 1) });
+const pumpingRateArg = oneOf(quantityArg, rateStepsArg);
+
+const csvOptionsArg = recordArg({
+  name: optional(stringArg()),
+  timeColumn: stringArg(),
+  valueColumn: stringArg(),
+  timeFormat: optional(stringArg(["elapsed", "timestamp"])),
+  timeUnit: optional(stringArg()),
+  pumpingStart: optional(stringArg()),
+  assumedUtcOffset: optional(stringArg()),
+  kind: optional(stringArg(["drawdown", "head", "depth-to-water"])),
+  lengthUnit: stringArg(),
+  staticLevel: optional(finite),
+  radius: quantityArg,
+  pumpingRate: pumpingRateArg,
+  separator: optional(stringArg([",", ";", "\t"])),
+  decimalComma: optional(booleanArg),
+  headerLine: optional(numberArg({ min: 1, integer: true })),
+  outOfOrder: optional(stringArg(["refuse", "sort"])),
+  missing: optional(stringArg(["refuse", "exclude"])),
+  missingMarkers: optional(stringsArg()),
+  beforeStart: optional(stringArg(["refuse", "exclude"])),
+  checkLevelKind: optional(booleanArg),
+  metadata: optional(mapOf(stringArg())),
+});
+
+const excludedPointArg = recordArg({
+  row: finite,
+  time: numberArg({ allowNonFinite: true }),
+  value: numberArg({ allowNonFinite: true }),
+  reason: stringArg(),
+});
+
+const seriesFields = recordArg({
+  name: stringArg(),
+  times: samples,
+  drawdowns: samples,
+  timeUnit: stringArg(),
+  lengthUnit: stringArg(),
+  radius: quantityArg,
+  pumpingRate: pumpingRateArg,
+  metadata: optional(mapOf(stringArg())),
+  excluded: optional(arrayOf(excludedPointArg)),
+});
+
+/**
+ * An observation series as aq.parseObservationCsv returns it. It is rebuilt with createObservationSeries, so a
+ * series edited in a cell meets the same rules (times > 0 and increasing, units of the right dimension) as one
+ * built on the host; the numbers are copied unchanged.
+ */
+const seriesArg: Validator<ObservationSeries> = refine(seriesFields, `an observation series (${seriesFields.expects})`, (fields, at) => {
+  try {
+    return createObservationSeries(fields);
+  } catch (e) {
+    if (e instanceof SeriesError) throw new ArgumentError(`${at}: ${e.message}`);
+    throw e;
+  }
+});
+
+const resampleOptionsArg = recordArg({ pointsPerDecade: positive, method: optional(stringArg(["nearest-centre", "median"])) });
+
+/** A parameter vector in descriptor order, or a record by parameter name. */
+const parametersArg = oneOf(numbersArg({}, 1), mapOf(finite));
+
+/**
+ * The parameter vector of model `id` from a vector (descriptor order) or a record by name; a missing or
+ * unknown name is an ArgumentError listing the model's parameters with their units.
+ */
+function parameterVector(id: string, values: Float64Array | Record<string, number>): Float64Array {
+  const { parameters } = getModel(id);
+  const list = parameters.map((p) => `${p.name} (${p.label}, ${p.unit})`).join(", ");
+  if (values instanceof Float64Array) {
+    if (values.length !== parameters.length) {
+      throw new ArgumentError(`aq.drawdown: model "${id}" takes ${parameters.length} parameters in this order: ${list}; got ${values.length}`);
+    }
+    return values;
+  }
+  for (const key of Object.keys(values)) {
+    if (!parameters.some((p) => p.name === key)) throw new ArgumentError(`aq.drawdown: model "${id}" has no parameter "${key}"; its parameters are ${list}`);
+  }
+  return Float64Array.from(parameters, (p) => {
+    const v = values[p.name];
+    if (v === undefined) throw new ArgumentError(`aq.drawdown: parameter ${p.name} of model "${id}" is missing; its parameters are ${list}`);
+    return v;
+  });
+}
+
+/** Drawdown (m) of model `id` at times t (d) for the geometry { r (m), Q (m3/d) }; the model's own formula. */
+function modelDrawdown(id: string, values: Float64Array | Record<string, number>, geometry: { r: number; Q: number }, t: Float64Array): Float64Array {
+  return getModel(id).drawdown(parameterVector(id, values), geometry, t);
+}
+
+const bourdetOptionsArg = recordArg({ smoothingLog10: optional(nonNegative), endpoints: optional(stringArg(["one-sided", "omit"])) });
+
+const regimeOptionsArg = recordArg({
+  lengthUnit: stringArg(),
+  pumpingRate: optional(quantityArg),
+  windowLog10: optional(positive),
+  flatTolerance: optional(positive),
+  unitSlopeTolerance: optional(positive),
+  fallingSlope: optional(finite),
+  minSpanLog10: optional(nonNegative),
+  minPoints: optional(numberArg({ min: 2, integer: true })),
+  doublingRatio: optional(rangeArg),
+});
+
+const staticLevelOptionsArg = recordArg({
+  times: samples,
+  levels: samples,
+  pumpingStart: finite,
+  count: numberArg({ min: 1, integer: true }),
+  timeUnit: stringArg(),
+  lengthUnit: stringArg(),
+});
+
+/** A static level: a number, or the estimate aq.estimateStaticLevel returned. */
+const staticLevelArg = oneOf(
+  finite,
+  pickArg({
+    level: finite,
+    count: numberArg({ min: 1, integer: true }),
+    standardDeviation: oneOf(nullArg, nonNegative),
+    range: nonNegative,
+    timeSpan: rangeArg,
+    lengthUnit: stringArg(),
+  }),
+);
+
+/** A unit as plain data: the symbol, its dimension (exponents of L, T, M and a name) and the factor to base units. */
+function describeParsedUnit(text: string): unknown {
+  const unit = parseUnit(text);
+  return { symbol: unit.symbol, dimension: { ...unit.dimension }, dimensionName: dimensionName(unit.dimension), factor: unit.factor, description: describeUnit(unit) };
+}
 
 /** Aquifer functions callable from a cell, by guest name. Base units: m, d, m3/d, m2/d (see the aquifer docs). */
 export const AQUIFER_API: Readonly<Record<string, BridgeEntry>> = {
@@ -170,6 +401,68 @@ export const AQUIFER_API: Readonly<Record<string, BridgeEntry>> = {
     "Quantile of Student's t distribution for probability p (0 < p < 1) and dof degrees of freedom",
     [arg("p", numberArg({ min: 0, max: 1, exclusiveMin: true })), arg("dof", positive)],
     (p, dof) => studentTQuantile(p, dof),
+  ),
+  "aq.getModel": fn("The same descriptor as aq.describeModel(id): the forward model itself stays on the host", [arg("id", modelIdArg)], (id) => describeModel(id)),
+  "aq.parseUnit": fn("A unit as data: { symbol, dimension: { L, T, M }, dimensionName, factor (to base units), description }", [arg("unit", stringArg())], (unit) =>
+    describeParsedUnit(unit),
+  ),
+  "aq.drawdown": fn(
+    "Drawdown (m) of model id at times t (d) for parameters (vector or record, base units) and { r (m), Q (m3/d) }",
+    [arg("model", modelIdArg), arg("parameters", parametersArg), arg("geometry", geometryArg), arg("t", oneOf(samples, refine(finite, "a number", (t) => Float64Array.of(t))))],
+    (model, parameters, geometry, t) => modelDrawdown(model, parameters, geometry, t),
+  ),
+  "aq.cooperJacobValidity": fn(
+    "For each t (d): whether u = r^2 S / (4 T t) <= uMax (default 0.01), for T (m2/d), S (1), r (m)",
+    [arg("T", positive), arg("S", positive), arg("r", positive), arg("t", samples), arg("uMax", optional(positive))],
+    (T, S, r, t, uMax) => cooperJacobValidity(T, S, r, t, uMax),
+  ),
+  "aq.parseObservationCsv": fn(
+    "An observation record read from CSV text: { series (times, drawdowns, units, radius, rate, excluded), notes }",
+    [arg("text", stringArg()), arg("options", csvOptionsArg)],
+    (text, options) => parseObservationCsv(text, options as ObservationCsvOptions),
+  ),
+  "aq.toBaseUnits": fn("A series in base units: { name, t (d), s (m), r (m), Q (m3/d, null if stepped), steps }", [arg("series", seriesArg)], (series) =>
+    toBaseUnits(series),
+  ),
+  "aq.logResample": fn(
+    "A series thinned to about pointsPerDecade real readings per decade of log t: { series, kept, removed, indices }",
+    [arg("series", seriesArg), arg("options", resampleOptionsArg)],
+    (series, options) => logResample(series, options as Parameters<typeof logResample>[1]),
+  ),
+  "aq.startingValues": fn(
+    "Starting parameters of model id from one record t (d), s (m) at { r (m), Q (m3/d) }: { values, line?, notes }",
+    [arg("model", modelIdArg), arg("geometry", geometryArg), arg("t", samples), arg("s", samples), arg("options", optional(recordArg({ uMax: optional(positive) })))],
+    (model, geometry, t, s, options) => startingValues(model, geometry, t, s, options),
+  ),
+  "aq.bourdetDerivative": fn(
+    "Bourdet (1989) log derivative ds/d ln t of drawdowns (any length unit) at times (> 0, increasing): { times, derivative, ... }",
+    [arg("times", samples), arg("drawdowns", samples), arg("options", optional(bourdetOptionsArg))],
+    (times, drawdowns, options) => bourdetDerivative(times, drawdowns, options as BourdetOptions | undefined),
+  ),
+  "aq.regimeHints": fn(
+    "Patterns of a log derivative (unit slope, flat, falling, doubling) with time ranges and, when flat, T (m2/d): hints, never verdicts",
+    [arg("derivative", pickArg({ times: samples, derivative: samples })), arg("options", regimeOptionsArg)],
+    (derivative, options) => regimeHints(derivative, options),
+  ),
+  "aq.transmissivityFromDerivativeLevel": fn(
+    "T (m2/d) = Q / (4 pi level) from the pumping rate { value, unit } and a flat derivative level { value, unit }",
+    [arg("pumpingRate", quantityArg), arg("level", quantityArg)],
+    (pumpingRate, level) => transmissivityFromDerivativeLevel(pumpingRate, level),
+  ),
+  "aq.estimateStaticLevel": fn(
+    "Static level: mean of the last count pre-test readings { times, levels, pumpingStart, count, timeUnit, lengthUnit }, with its spread",
+    [arg("options", staticLevelOptionsArg)],
+    (options) => estimateStaticLevel(options),
+  ),
+  "aq.removeStaticLevel": fn(
+    "Drawdowns from levels and a static level (number or estimate): { values, record } with s = d - d0 or s = h0 - h",
+    [arg("options", recordArg({ levels: samples, levelKind: stringArg(["depth-to-water", "head"]), lengthUnit: stringArg(), staticLevel: staticLevelArg }))],
+    (options) => removeStaticLevel(options as Parameters<typeof removeStaticLevel>[0]),
+  ),
+  "aq.fitModel": fn(
+    "Least-squares fit of model id to one or more wells: estimates, standard errors, 95 % intervals, RMSE, AIC, BIC, residuals",
+    [arg("options", fitOptionsArg)],
+    (options) => fitModel(options),
   ),
 };
 

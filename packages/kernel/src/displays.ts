@@ -3,6 +3,7 @@
  * document's CellOutput values. Input is decoded wire data from the guest and is checked here; a display that
  * cannot be shown throws DisplayError with a message for the user.
  */
+import { getModel, isModelId } from "@conebook/aquifer";
 import type { CellOutput } from "@conebook/document";
 
 /** A display the kernel cannot turn into an output; the message says why and what to pass instead. */
@@ -98,10 +99,25 @@ function interval(v: unknown): [Cell, Cell] {
   return [null, null];
 }
 
+/** A number, or null when it is not a finite number (a missing statistic). */
+function statistic(v: unknown): number | null {
+  return typeof v === "number" && Number.isFinite(v) ? v : null;
+}
+
+/** The title of a fit table: the model's display name when the result names a registered model. */
+function fitTitle(result: Record<string, unknown>): string {
+  const id = pick(result, "modelId");
+  if (typeof id === "string" && isModelId(id)) return `Fitted parameters: ${getModel(id).name}`;
+  const model = pick(result, "modelName", "model");
+  return typeof model === "string" ? `Fitted parameters: ${model}` : "Fitted parameters";
+}
+
 /**
- * The parameter table of a fit: one row per parameter with estimate, standard error and 95 % interval.
- * Reads `result.parameters`, either an array of `{ name, unit?, estimate | value, standardError | se,
- * interval95 | ci95 | interval: [low, high] }` or a record of such objects keyed by parameter name.
+ * The parameter table of a fit: one row per parameter with estimate, standard error and 95 % interval (base
+ * units, as aq.fitModel returns them), then one row each for RMSE (m), AIC and BIC when the result has them.
+ * Reads `result.parameters`: the FitResult shape `[{ name, label?, unit, estimate, standardError, ci95: [low,
+ * high] | null, fixed? }]`, or the older spellings `value`, `se`, `interval95`, or a record keyed by name.
+ * A fixed parameter is named "NAME (fixed)" and has no standard error or interval.
  */
 export function fitTableOutput(result: unknown, options: unknown = {}): TableOutput {
   const params = isRecord(result) ? result.parameters : undefined;
@@ -111,12 +127,14 @@ export function fitTableOutput(result: unknown, options: unknown = {}): TableOut
       ? Object.entries(params).map(([name, p]) => ({ name, ...(isRecord(p) ? p : { estimate: p }) }))
       : [];
   if (list.length === 0) {
-    throw new DisplayError("show.fit: the value has no parameters; pass the result of a fit (an object with a `parameters` list)");
+    throw new DisplayError("show.fit: the value has no parameters; pass the result of aq.fitModel (an object with a `parameters` list)");
   }
-  const rows = list.map((p) => {
-    const [lo, hi] = interval(pick(p, "interval95", "ci95", "confidenceInterval", "interval"));
+  const rows: Cell[][] = list.map((p) => {
+    const [lo, hi] = interval(pick(p, "ci95", "interval95", "confidenceInterval", "interval"));
+    const name = String(cell(pick(p, "name", "id")));
+    const label = typeof p.label === "string" && p.label !== "" ? ` (${p.label})` : "";
     return [
-      cell(pick(p, "name", "id")),
+      p.fixed === true ? `${name}${label} (fixed)` : `${name}${label}`,
       cell(pick(p, "estimate", "value")),
       cell(pick(p, "standardError", "stdError", "se")),
       lo,
@@ -124,11 +142,19 @@ export function fitTableOutput(result: unknown, options: unknown = {}): TableOut
       cell(pick(p, "unit") ?? ""),
     ];
   });
+  const r = result as Record<string, unknown>;
+  const summary: [string, unknown, string][] = [
+    ["RMSE", r.rmse, "m"],
+    ["AIC", r.aic, ""],
+    ["BIC", r.bic, ""],
+  ];
+  for (const [name, value, unit] of summary) {
+    if (value !== undefined) rows.push([name, statistic(value), null, null, null, unit]);
+  }
   const opts = isRecord(options) ? options : {};
-  const model = isRecord(result) ? pick(result, "modelName", "model") : undefined;
   return {
     type: "table",
-    title: typeof opts.title === "string" ? opts.title : typeof model === "string" ? `Fitted parameters: ${model}` : "Fitted parameters",
+    title: typeof opts.title === "string" ? opts.title : fitTitle(r),
     columns: [{ name: "parameter" }, { name: "estimate" }, { name: "standard error" }, { name: "95 % low" }, { name: "95 % high" }, { name: "unit" }],
     rows,
   };

@@ -191,3 +191,128 @@ export const plainData: Validator<unknown> = {
     return value;
   },
 };
+
+/** An array of true/false flags (e.g. a fit's inclusion mask), returned as a plain boolean array. */
+export function booleansArg(minLength = 0): Validator<boolean[]> {
+  const expects = `an array of at least ${minLength} true/false values`;
+  return {
+    expects,
+    check(value, at) {
+      if (!Array.isArray(value) || value.length < minLength) fail(at, expects, value);
+      return value.map((v: unknown, i) => {
+        if (typeof v !== "boolean") fail(`${at}, element ${i}`, "true or false", v);
+        return v;
+      });
+    },
+  };
+}
+
+/** An array of strings. */
+export function stringsArg(minLength = 0): Validator<string[]> {
+  const expects = `an array of at least ${minLength} strings`;
+  return {
+    expects,
+    check(value, at) {
+      if (!Array.isArray(value) || value.length < minLength) fail(at, expects, value);
+      return value.map((v: unknown, i) => {
+        if (typeof v !== "string") fail(`${at}, element ${i}`, "a string", v);
+        return v;
+      });
+    },
+  };
+}
+
+/**
+ * A plain object whose keys are free (e.g. parameter names) and whose every value passes `inner`; the keys are
+ * checked by whoever uses them (the aquifer function names unknown parameters itself).
+ */
+export function mapOf<T>(inner: Validator<T>): Validator<Record<string, T>> {
+  const expects = `an object whose values are each ${inner.expects}`;
+  return {
+    expects,
+    check(value, at) {
+      if (value === null || typeof value !== "object" || Array.isArray(value) || value instanceof Float64Array) fail(at, expects, value);
+      const out: Record<string, T> = {};
+      for (const [key, v] of Object.entries(value as Record<string, unknown>)) out[key] = inner.check(v, `${at}, field "${key}"`);
+      return out;
+    },
+  };
+}
+
+/** An interval [low, high] of finite numbers with low <= high. */
+const RANGE_EXPECTS = "an array [low, high] of two finite numbers with low <= high";
+export const rangeArg: Validator<[number, number]> = {
+  expects: RANGE_EXPECTS,
+  check(value, at) {
+    const pair = Array.isArray(value) || value instanceof Float64Array ? Array.from(value as ArrayLike<unknown>) : undefined;
+    if (!pair || pair.length !== 2 || typeof pair[0] !== "number" || typeof pair[1] !== "number") fail(at, RANGE_EXPECTS, value);
+    const [lo, hi] = pair as [number, number];
+    if (!Number.isFinite(lo) || !Number.isFinite(hi) || !(lo <= hi)) fail(at, RANGE_EXPECTS, value);
+    return [lo, hi];
+  },
+};
+
+/**
+ * The first of several validators that accepts the value (tried in order); when none does, the message lists
+ * what each would have accepted.
+ */
+export function oneOf<V extends readonly Validator<unknown>[]>(...options: V): Validator<Checked<V[number]>> {
+  const expects = options.map((o) => o.expects).join(", or ");
+  return {
+    expects,
+    check(value, at) {
+      for (const o of options) {
+        try {
+          return o.check(value, at) as Checked<V[number]>;
+        } catch (e) {
+          if (!(e instanceof ArgumentError)) throw e;
+        }
+      }
+      return fail(at, expects, value);
+    },
+  };
+}
+
+/** A validator whose check is `inner`'s followed by a conversion or further check `then` (which may throw ArgumentError). */
+export function refine<T, U>(inner: Validator<T>, expects: string, then: (value: T, at: string) => U): Validator<U> {
+  return {
+    expects,
+    check(value, at) {
+      return then(inner.check(value, at), at);
+    },
+  };
+}
+
+type PickedOf<S extends Shape> = { [K in keyof S]: Checked<S[K]> };
+
+/**
+ * A plain object of which only the named fields are read (and checked); other fields are ignored. For results
+ * of one bridge function passed to another (a derivative, an estimate), which carry fields the next one does
+ * not need.
+ */
+export function pickArg<S extends Shape>(shape: S): Validator<PickedOf<S>> {
+  const names = Object.keys(shape);
+  const expects = `an object with fields ${names.join(", ")}`;
+  return {
+    expects,
+    check(value, at) {
+      if (value === null || typeof value !== "object" || Array.isArray(value) || value instanceof Float64Array) fail(at, expects, value);
+      const input = value as Record<string, unknown>;
+      const out: Record<string, unknown> = {};
+      for (const key of names) {
+        const checked = shape[key]!.check(input[key], `${at}, field "${key}"`);
+        if (checked !== undefined) out[key] = checked;
+      }
+      return out as PickedOf<S>;
+    },
+  };
+}
+
+/** null, for fields a result may leave empty (a standard deviation of one reading). */
+export const nullArg: Validator<null> = {
+  expects: "null",
+  check(value, at) {
+    if (value !== null) fail(at, "null", value);
+    return null;
+  },
+};
