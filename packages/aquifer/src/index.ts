@@ -13,3 +13,5 @@ export * from "./corrections/index.js";
 export * from "./diagnostics/index.js";
 export * from "./steptest/index.js";
 export * from "./slug/index.js";
+export * from "./superposition/index.js";
+export * from "./forecast/index.js";

@@ -52,7 +52,7 @@ export function packWells(wells: readonly ObservationWell[] | undefined): { well
     const name = typeof w.name === "string" && w.name !== "" ? w.name : `#${k + 1}`;
     if (names.has(name)) throw new FitInputError(`fitModel: two wells are named "${name}"; give each well its own name.`);
     names.add(name);
-    const { r, Q } = w.geometry ?? ({} as ObservationGeometry);
+    const { r, Q, x, y } = w.geometry ?? ({} as ObservationGeometry);
     if (!(Number.isFinite(r) && r > 0)) {
       throw new FitInputError(`fitModel: well "${name}" has r = ${r} m; give the distance to the pumping well as a number > 0.`);
     }
@@ -105,7 +105,9 @@ export function packWells(wells: readonly ObservationWell[] | undefined): { well
       s[j] = w.s[i]!;
       if (w.weights) sqrtWeights[j] = Math.sqrt(w.weights[i]!);
     });
-    packed.push({ name, geometry: { r, Q }, offset, index, t, s, sqrtWeights });
+    const geometry: ObservationGeometry =
+      Number.isFinite(x) && Number.isFinite(y) ? { r, Q, x: x!, y: y! } : { r, Q };
+    packed.push({ name, geometry, offset, index, t, s, sqrtWeights });
     offset += used.length;
   });
   return { wells: packed, count: offset };

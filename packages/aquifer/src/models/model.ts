@@ -47,6 +47,12 @@ export interface ObservationGeometry {
   readonly r: number;
   /** Constant pumping rate, m3/d, positive for abstraction. */
   readonly Q: number;
+  /**
+   * Optional plan coordinates of the observation point, m, in the frame of a well scheme or boundary set
+   * (read by the superposition models; plain radial models ignore them).
+   */
+  readonly x?: number;
+  readonly y?: number;
 }
 
 /** A forward model: drawdown at one observation point as a function of time. */

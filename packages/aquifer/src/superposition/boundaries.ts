@@ -22,6 +22,10 @@
  *   - two parallel lines (a strip of width a): the infinite dihedral group; the images lie in two chains,
  *     P -> R_1 P -> R_2 R_1 P -> ... and P -> R_2 P -> R_1 R_2 P -> ..., image m of each chain about m a farther
  *     away, its sign the product of the m reflection signs. Any mix of kinds is exact; the series is truncated.
+ *   - three or four lines in two mutually perpendicular families (a strip closed at one end, a rectangle): each
+ *     family is one line or two facing parallel lines. Reflections across perpendicular lines commute, so the
+ *     group is the direct product G_A x G_B and every image is g_a g_b P with sign chi_A(g_a) chi_B(g_b); any mix
+ *     of kinds is exact, since (R_a R_b)^2 = 1 puts no condition on the signs. The double series is truncated.
  * Source for the wedge and strip image systems: Ferris et al. (1962); the group-theoretic sign condition is
  * derived here from the relation above.
  */
@@ -50,11 +54,14 @@ export interface ImageWell extends Point {
 export type ImageLayout =
   | { readonly kind: "none" }
   | { readonly kind: "finite"; readonly description: string; readonly images: readonly ImageWell[] }
-  | { readonly kind: "strip"; readonly description: string; readonly width: number; readonly chains: readonly [BoundaryChainStart, BoundaryChainStart] };
+  | { readonly kind: "series"; readonly description: string; readonly families: readonly BoundaryFamily[] };
 
-/** A chain of strip images: reflect alternately across `first` then the other line. */
-export interface BoundaryChainStart {
-  readonly first: 0 | 1;
+/**
+ * Parallel boundaries of one direction: one line, or two facing lines (a strip). In a "series" layout there are
+ * one or two families, mutually perpendicular, and at least one of them is a strip.
+ */
+export interface BoundaryFamily {
+  readonly lines: readonly StraightBoundary[];
 }
 
 const DEGREE = 180 / Math.PI;
@@ -103,10 +110,10 @@ export function checkBoundaries(
   pumping: readonly { readonly name: string; readonly point: Point }[],
   observations: readonly { readonly name: string; readonly point: Point }[],
 ): void {
-  if (boundaries.length > 2) {
+  if (boundaries.length > 4) {
     throw new SuperpositionInputError(
-      `${where}: ${boundaries.length} boundaries given; the image method is implemented for one boundary, two parallel ` +
-        "boundaries (a strip) or two boundaries meeting at 180/n degrees (a wedge). Combine the boundaries that matter most into one of these.",
+      `${where}: ${boundaries.length} boundaries given; the image method is exact here for one boundary, a strip, a wedge of ` +
+        "180/n degrees, or three or four boundaries at right angles (a strip closed at one end, a rectangle). Keep the boundaries that matter most.",
     );
   }
   boundaries.forEach((b, i) => {
@@ -182,6 +189,7 @@ function samePlace(a: Point, b: Point, scale: number): boolean {
  */
 export function imageLayout(where: string, well: Point, boundaries: readonly StraightBoundary[]): ImageLayout {
   if (boundaries.length === 0) return { kind: "none" };
+  if (boundaries.length > 2) return rectangularLayout(where, boundaries);
   if (boundaries.length === 1) {
     const b = boundaries[0]!;
     const p = reflect(b, well);
@@ -197,10 +205,9 @@ export function imageLayout(where: string, well: Point, boundaries: readonly Str
   if (rel.kind === "parallel-opposite") {
     const width = b1.offset + b2.offset;
     return {
-      kind: "strip",
+      kind: "series",
       description: `strip of width ${Number(width.toPrecision(6))} m between a ${b1.kind} and a ${b2.kind} boundary`,
-      width,
-      chains: [{ first: 0 }, { first: 1 }],
+      families: [{ lines: [b1, b2] }],
     };
   }
   const order = wedgeOrder(b1, b2);
@@ -235,9 +242,56 @@ export function imageLayout(where: string, well: Point, boundaries: readonly Str
   };
 }
 
-/** Image m (m >= 1) of a strip chain, for the previous image `previous` (the real well for m = 1). */
-export function nextStripImage(boundaries: readonly StraightBoundary[], chain: BoundaryChainStart, m: number, previous: ImageWell): ImageWell {
-  const b = boundaries[(chain.first + m - 1) % 2]!;
-  const p = reflect(b, previous);
-  return { ...p, sign: (previous.sign * imageSign(b.kind)) as 1 | -1, order: m };
+/** Layout of three or four boundaries in two perpendicular families, or an error saying why not. */
+function rectangularLayout(where: string, boundaries: readonly StraightBoundary[]): ImageLayout {
+  const families: StraightBoundary[][] = [];
+  for (const b of boundaries) {
+    const family = families.find((f) => Math.abs(Math.sin(b.normalAngle - f[0]!.normalAngle)) < 1e-12);
+    if (family) family.push(b);
+    else families.push([b]);
+  }
+  const refuse = (why: string): never => {
+    throw new SuperpositionInputError(
+      `${where}: ${boundaries.length} boundaries ${why}; with three or four boundaries the image method is exact only for two perpendicular ` +
+        "directions, each with one line or two facing lines (a strip closed at one end, a rectangle).",
+    );
+  };
+  if (families.length !== 2) refuse(`run in ${families.length} different directions`);
+  const [A, B] = families as [StraightBoundary[], StraightBoundary[]];
+  if (Math.abs(Math.cos(A[0]!.normalAngle - B[0]!.normalAngle)) > 1e-12) {
+    const angle = (Math.acos(Math.abs(Math.cos(A[0]!.normalAngle - B[0]!.normalAngle))) * 180) / Math.PI;
+    refuse(`meet at ${angle.toFixed(4)} degrees, not 90`);
+  }
+  for (const f of [A, B]) {
+    if (f.length > 2) refuse("include more than two parallel lines");
+    if (f.length === 2 && Math.cos(f[1]!.normalAngle - f[0]!.normalAngle) > 0) {
+      refuse("include two parallel lines with the aquifer on the same side (the nearer hides the farther)");
+    }
+  }
+  const describe = (f: StraightBoundary[]) =>
+    f.length === 1 ? `a ${f[0]!.kind} line` : `a strip of width ${Number((f[0]!.offset + f[1]!.offset).toPrecision(6))} m (${f[0]!.kind}, ${f[1]!.kind})`;
+  return {
+    kind: "series",
+    description: `${describe(A)} closed at right angles by ${describe(B)}`,
+    families: [{ lines: A }, { lines: B }],
+  };
+}
+
+/**
+ * The images of order m >= 1 of a family of parallel lines, from those of order m - 1 (`previous`; for m = 1 the
+ * real well alone). One line: its mirror image at order 1, none after. Two lines: chain c (c = 0, 1) starts by
+ * reflecting in line c and then alternates, so order m holds two images.
+ */
+export function nextFamilyImages(family: BoundaryFamily, m: number, previous: readonly ImageWell[]): ImageWell[] {
+  const lines = family.lines;
+  if (lines.length === 1) {
+    if (m > 1) return [];
+    const b = lines[0]!;
+    return [{ ...reflect(b, previous[0]!), sign: (previous[0]!.sign * imageSign(b.kind)) as 1 | -1, order: 1 }];
+  }
+  return [0, 1].map((c) => {
+    const from = m === 1 ? previous[0]! : previous[c]!;
+    const b = lines[(c + m - 1) % 2]!;
+    return { ...reflect(b, from), sign: (from.sign * imageSign(b.kind)) as 1 | -1, order: m };
+  });
 }

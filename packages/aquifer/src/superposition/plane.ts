@@ -17,6 +17,6 @@ export function distanceBetween(a: Point, b: Point): number {
 }
 
 /** True when x and y are finite numbers. */
-export function isFinitePoint(p: Point | undefined): p is Point {
+export function isFinitePoint(p: Point | undefined): boolean {
   return p !== undefined && p !== null && Number.isFinite(p.x) && Number.isFinite(p.y);
 }

@@ -64,26 +64,43 @@ export function rateChanges(steps: readonly PumpingStep[] | undefined, where: st
   return { start: Float64Array.from(start), change: Float64Array.from(change) };
 }
 
-/** Times t - t0 that are > 0, with their indices into t. */
-function shiftedTimes(t: ArrayLike<number>, t0: number): { index: Int32Array; tau: Float64Array } {
-  const index: number[] = [];
-  const tau: number[] = [];
-  for (let i = 0; i < t.length; i++) {
-    const d = t[i]! - t0;
-    if (d > 0) {
-      index.push(i);
-      tau.push(d);
-    } else if (!(d <= 0)) {
-      index.push(i);
-      tau.push(Number.NaN);
+/** The times after each rate change: for change k, the indices i with t_i > t_k (or NaN) and tau = t_i - t_k. */
+export interface ShiftedTimes {
+  readonly index: readonly Int32Array[];
+  readonly tau: readonly Float64Array[];
+  /** Scratch arrays, one per change, for the unit response. */
+  readonly scratch: readonly Float64Array[];
+}
+
+/** Precomputes the shifted times of a schedule for the times t (d). */
+export function shiftTimes(changes: RateChanges, t: ArrayLike<number>): ShiftedTimes {
+  const index: Int32Array[] = [];
+  const tau: Float64Array[] = [];
+  for (let k = 0; k < changes.start.length; k++) {
+    const t0 = changes.start[k]!;
+    let count = 0;
+    for (let i = 0; i < t.length; i++) if (!(t[i]! - t0 <= 0)) count++;
+    const idx = new Int32Array(count);
+    const shifted = new Float64Array(count);
+    let j = 0;
+    for (let i = 0; i < t.length; i++) {
+      const d = t[i]! - t0;
+      if (!(d <= 0)) {
+        idx[j] = i;
+        shifted[j] = d > 0 ? d : Number.NaN;
+        j++;
+      }
     }
+    index.push(idx);
+    tau.push(shifted);
   }
-  return { index: Int32Array.from(index), tau: Float64Array.from(tau) };
+  return { index, tau, scratch: tau.map((x) => new Float64Array(x.length)) };
 }
 
 /**
  * Adds factor * sum_i dQ_i s1(r, t - t_i) (m) into `out`, and, when `jacobianOut` is given, the same sum of the
- * unit-rate Jacobian columns (m per base unit of each parameter). `r` in m, times in d. Times that are NaN give NaN.
+ * unit-rate Jacobian columns (m per base unit of each parameter). `r` in m, times in d (given through `shifted`,
+ * from shiftTimes, or as t). Times that are NaN give NaN.
  */
 export function addScheduleResponse(
   model: DrawdownModel,
@@ -91,16 +108,18 @@ export function addScheduleResponse(
   r: number,
   changes: RateChanges,
   factor: number,
-  t: ArrayLike<number>,
+  t: ArrayLike<number> | ShiftedTimes,
   out: Float64Array,
   jacobianOut?: Float64Array[],
 ): void {
+  const shifted = isShifted(t) ? t : shiftTimes(changes, t);
   const unit: ObservationGeometry = { r, Q: 1 };
   for (let k = 0; k < changes.start.length; k++) {
-    const { index, tau } = shiftedTimes(t, changes.start[k]!);
+    const tau = shifted.tau[k]!;
     if (tau.length === 0) continue;
+    const index = shifted.index[k]!;
     const weight = factor * changes.change[k]!;
-    const s = model.drawdown(p, unit, tau);
+    const s = model.drawdown(p, unit, tau, shifted.scratch[k]!);
     for (let j = 0; j < tau.length; j++) out[index[j]!]! += weight * s[j]!;
     if (jacobianOut) {
       const columns = model.jacobian!(p, unit, tau);
@@ -111,6 +130,10 @@ export function addScheduleResponse(
       }
     }
   }
+}
+
+function isShifted(t: ArrayLike<number> | ShiftedTimes): t is ShiftedTimes {
+  return (t as ShiftedTimes).tau !== undefined && (t as ShiftedTimes).index !== undefined;
 }
 
 /** Output array of length n, checked when given. */

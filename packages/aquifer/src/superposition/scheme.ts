@@ -1,20 +1,24 @@
 /**
  * Superposition in space and time: drawdown at one observation point caused by several pumping wells, each with
- * its own rate schedule, in an aquifer bounded by up to two straight boundaries (image wells, boundaries.ts).
+ * its own rate schedule, in an aquifer bounded by straight boundaries (image wells, boundaries.ts).
  *
  *   s(x, t) = sum_wells sum_images sign_j sum_i (Q_i - Q_{i-1}) s1(|x - x_j|, t - t_i)
  *
- * with s1 the base model's drawdown for a unit rate (m per m3/d). A strip's infinite image series is summed row by
- * row (row m: image m of each of the two chains of every well) until two rows in a row each change the drawdown by
- * less than `tolerance` times the sum of the absolute contributions so far, at every time. The sum of absolute
- * contributions, not the total, is the scale because the total is 0 on a constant-head line.
+ * with s1 the base model's drawdown for a unit rate (m per m3/d). An infinite image series is summed row by row
+ * (row m: the images of order m of a strip, two per well; for two perpendicular families with images of orders i and
+ * j, the pairs with max(i, j) = m) until, for two rows in a row and at every time, both
+ * the row's change c_m and the geometric estimate of the rest of the series c_m q/(1 - q), q = |c_m|/|c_{m-1}| < 1,
+ * are below `tolerance` times the scale max(|s|, 1e-3 sum |contributions|). The tail estimate matters for two
+ * barriers at late time, where many small rows of one sign add up. The floor on the scale
+ * keeps the test meaningful where the total tends to 0 (on or next to a constant-head line); elsewhere the
+ * tolerance is relative to the total drawdown itself.
  * Source: superposition of linear solutions; images after Ferris et al. (1962), USGS Water-Supply Paper 1536-E.
  */
 import type { DrawdownModel } from "../models/index.js";
-import { imageLayout, nextStripImage, checkBoundaries, type ImageLayout, type ImageWell, type StraightBoundary } from "./boundaries.js";
+import { imageLayout, nextFamilyImages, checkBoundaries, type BoundaryFamily, type ImageLayout, type ImageWell, type StraightBoundary } from "./boundaries.js";
 import { SuperpositionInputError } from "./errors.js";
 import { distanceBetween, isFinitePoint, type Point } from "./plane.js";
-import { addScheduleResponse, rateChanges, type PumpingStep, type RateChanges } from "./rate-schedule.js";
+import { addScheduleResponse, rateChanges, shiftTimes, type PumpingStep, type RateChanges, type ShiftedTimes } from "./rate-schedule.js";
 
 /** A pumping well placed by coordinates (m) with its rate schedule. */
 export interface PumpingWell {
@@ -26,8 +30,12 @@ export interface PumpingWell {
 
 /** Default relative truncation tolerance of strip image series. */
 export const STRIP_TOLERANCE = 1e-9;
+/** Fraction of the sum of absolute contributions below which the total is not used as the truncation scale. */
+const SCALE_FLOOR = 1e-3;
 /** Most image rows summed for a strip before giving up. */
 export const STRIP_MAX_ROWS = 20000;
+/** Most images summed in one evaluation of a strip or rectangle series before giving up. */
+export const SERIES_MAX_IMAGES = 2000000;
 
 /** A checked scheme: wells with rate changes and image layouts, ready to evaluate. */
 export interface PreparedScheme {
@@ -46,7 +54,7 @@ export interface SchemeEvaluation {
   readonly imagesUsed: number;
   /** Strip rows summed (0 without a strip). */
   readonly rows: number;
-  /** Largest relative size of the last row summed (0 without a strip). */
+  /** Largest of the last row and its tail estimate, relative to max(|s|, 1e-3 sum |contributions|) (0 without a strip). */
   readonly lastRowRelative: number;
 }
 
@@ -123,11 +131,13 @@ export function evaluateScheme(
   const termJacobian = withJacobian ? model.parameters.map(() => new Float64Array(n)) : undefined;
   let imagesUsed = 0;
 
+  const shifted = new Map<RateChanges, ShiftedTimes>();
+  for (const w of scheme.wells) shifted.set(w.changes, shiftTimes(w.changes, t));
   const add = (wellName: string, changes: RateChanges, source: Point, sign: number, isReal: boolean): void => {
     const r = sourceDistance(where, wellName, source, point, isReal);
     term.fill(0);
     if (termJacobian) for (const c of termJacobian) c.fill(0);
-    addScheduleResponse(model, p, r, changes, sign, t, term, termJacobian);
+    addScheduleResponse(model, p, r, changes, sign, shifted.get(changes)!, term, termJacobian);
     for (let i = 0; i < n; i++) {
       s[i]! += term[i]!;
       magnitude[i]! += Math.abs(term[i]!);
@@ -142,45 +152,67 @@ export function evaluateScheme(
     if (!isReal) imagesUsed++;
   };
 
-  const strips: { name: string; changes: RateChanges; chains: ImageWell[]; layout: Extract<ImageLayout, { kind: "strip" }> }[] = [];
+  const series: { name: string; changes: RateChanges; real: Point; families: readonly BoundaryFamily[]; orders: ImageWell[][][] }[] = [];
   for (const w of scheme.wells) {
     add(w.name, w.changes, w.point, 1, true);
     if (w.layout.kind === "finite") {
       for (const image of w.layout.images) add(w.name, w.changes, image, image.sign, false);
-    } else if (w.layout.kind === "strip") {
+    } else if (w.layout.kind === "series") {
       const real: ImageWell = { ...w.point, sign: 1, order: 0 };
-      strips.push({ name: w.name, changes: w.changes, chains: [real, real], layout: w.layout });
+      series.push({ name: w.name, changes: w.changes, real, families: w.layout.families, orders: w.layout.families.map(() => [[real]]) });
     }
   }
+  const imagesOfOrder = (entry: (typeof series)[number], f: number, m: number): readonly ImageWell[] => {
+    if (f >= entry.families.length) return m === 0 ? [entry.real as ImageWell] : [];
+    const orders = entry.orders[f]!;
+    while (orders.length <= m) orders.push(nextFamilyImages(entry.families[f]!, orders.length, orders[orders.length - 1]!));
+    return orders[m]!;
+  };
+  const addPair = (entry: (typeof series)[number], i: number, j: number): void => {
+    const A = imagesOfOrder(entry, 0, i);
+    const B = imagesOfOrder(entry, 1, j);
+    for (const a of A) {
+      for (const b of B) {
+        // Reflections across perpendicular lines commute; a B-word moves a point along B's normal only, by the
+        // same displacement for every A-image, so g_a g_b P = g_a P + (g_b P - P).
+        const image = { x: a.x + b.x - entry.real.x, y: a.y + b.y - entry.real.y };
+        add(entry.name, entry.changes, image, a.sign * b.sign, false);
+      }
+    }
+  };
 
   let rows = 0;
   let lastRowRelative = 0;
-  if (strips.length > 0) {
+  if (series.length > 0) {
     const before = new Float64Array(n);
+    const previousChange = new Float64Array(n).fill(Infinity);
     let quietRows = 0;
     while (quietRows < 2) {
-      if (rows >= STRIP_MAX_ROWS) {
+      if (rows >= STRIP_MAX_ROWS || imagesUsed >= SERIES_MAX_IMAGES) {
         throw new SuperpositionInputError(
-          `${where}: the strip image series has not converged to a relative tolerance of ${scheme.tolerance} after ${rows} rows ` +
-            `(last row ${lastRowRelative.toExponential(2)} of the total); the strip is narrow for the times asked for. ` +
+          `${where}: the image series has not converged to a relative tolerance of ${scheme.tolerance} after ${rows} rows and ${imagesUsed} images ` +
+            `(${Number.isFinite(lastRowRelative) ? `last row ${lastRowRelative.toExponential(2)} of the total` : "the rows are not yet getting smaller"}); ` +
+            "the strip is narrow for the times and parameters asked for (the rows needed grow as sqrt(T t / S) / width). " +
             "Loosen the tolerance, shorten the times, or check the strip width.",
         );
       }
       rows++;
       before.set(s);
-      for (const strip of strips) {
-        for (let c = 0; c < 2; c++) {
-          const image = nextStripImage(scheme.boundaries, strip.layout.chains[c]!, rows, strip.chains[c]!);
-          strip.chains[c] = image;
-          add(strip.name, strip.changes, image, image.sign, false);
-        }
+      const m = rows;
+      for (const entry of series) {
+        // Row m of the (A order, B order) grid: the pairs with max(i, j) = m.
+        for (let j = 0; j <= m; j++) addPair(entry, m, j);
+        for (let i = 0; i < m; i++) addPair(entry, i, m);
       }
       lastRowRelative = 0;
       for (let i = 0; i < n; i++) {
         const change = Math.abs(s[i]! - before[i]!);
-        const scale = magnitude[i]!;
-        if (change > 0 && scale > 0) lastRowRelative = Math.max(lastRowRelative, change / scale);
-        else if (change > 0) lastRowRelative = Infinity;
+        const ratio = change / previousChange[i]!;
+        previousChange[i] = change;
+        if (!(change > 0)) continue;
+        const tail = ratio < 1 ? (change * ratio) / (1 - ratio) : Infinity;
+        const scale = Math.max(Math.abs(s[i]!), SCALE_FLOOR * magnitude[i]!);
+        lastRowRelative = Math.max(lastRowRelative, scale > 0 ? Math.max(change, tail) / scale : Infinity);
       }
       quietRows = lastRowRelative <= scheme.tolerance ? quietRows + 1 : 0;
     }
