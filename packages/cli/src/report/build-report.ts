@@ -51,6 +51,7 @@ h1 { font-size: 1.7rem; margin-bottom: 0.5rem; }
 details { margin: 0.5rem 0; }
 summary { cursor: pointer; color: #444; font-size: 0.9rem; }
 pre { background: #f5f5f5; padding: 0.5rem 0.75rem; overflow-x: auto; font-size: 0.85rem; }
+pre.text { white-space: pre-wrap; overflow-wrap: anywhere; }
 table { border-collapse: collapse; margin: 0.5rem 0; font-size: 0.9rem; }
 caption { text-align: left; font-weight: 600; padding-bottom: 0.25rem; }
 th, td { border: 1px solid #ccc; padding: 0.2rem 0.5rem; text-align: left; }
