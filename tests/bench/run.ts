@@ -3,6 +3,7 @@
  * whether each target is met. Run on an otherwise idle machine; figures from a loaded machine are noisy.
  */
 import { machineLine, printTable } from "./harness.js";
+import { cliBenchmarks } from "./sections/cli.js";
 import { kernelBenchmarks } from "./sections/kernel.js";
 import { wellFunctionsAndFit } from "./sections/well-functions-and-fit.js";
 
@@ -10,3 +11,4 @@ console.log("# Conebook benchmarks");
 console.log(machineLine());
 printTable("Well functions and fitting (aquifer)", wellFunctionsAndFit());
 printTable("Sandbox, bridge and documents (kernel)", await kernelBenchmarks());
+printTable("Command line (cli)", cliBenchmarks());
