@@ -36,3 +36,21 @@ export {
 export { theisMatchPoint, type TheisMatchPointInput, type TheisMatchPointResult } from "./match-point.js";
 export { getModel, isModelId, modelIds, models, type ModelId } from "./registry.js";
 export { startingValues, type StartingValues } from "./starting-values.js";
+export {
+  PAPADOPULOS_COOPER_STEHFEST_TERMS,
+  papadopulosCooperDrawdown,
+  papadopulosCooperF,
+  papadopulosCooperModel,
+  type PapadopulosCooperModel,
+  type WellboreGeometry,
+} from "./papadopulos-cooper.js";
+export {
+  PARTIAL_PENETRATION_TOLERANCE,
+  anisotropyParameter,
+  partialPenetrationCorrection,
+  partialPenetrationModel,
+  partialPenetrationNegligibleDistance,
+  type PartialPenetrationGeometry,
+  type PartialPenetrationModel,
+  type PenetrationObservation,
+} from "./partial-penetration.js";
