@@ -143,7 +143,9 @@ function hantushTypeCurveSearch(
  * - theis, cooper-jacob: T and S of the Cooper-Jacob line on the points with u <= uMax;
  * - hantush-jacob: T, S and B of the best point of a type-curve search over u and r/B (final grid
  *   factor 1.12 in each), since levelling-off makes the late straight line too flat;
- * - thiem: T of the Cooper-Jacob line; R from the drawdown at the latest time, R = r exp(2 pi T s / Q).
+ * - thiem: T of the Cooper-Jacob line; R from the drawdown at the latest time, R = r exp(2 pi T s / Q);
+ * - any other model whose parameters begin with T and S (well-bore storage, partial penetration...): T and S
+ *   of the Cooper-Jacob line, further parameters at the geometric middle of their bounds.
  * Values outside the descriptor bounds are moved to the nearest bound, with a note.
  * @throws ModelInputError when the record has too few usable points or no line or curve matches it.
  */
@@ -183,10 +185,26 @@ export function startingValues(
       notes.push(`R from the drawdown ${s[last]} m at the latest time ${t[last]} d.`);
       return { values: Float64Array.of(T, clamp(m, 1, R, notes)), line, notes };
     }
-    default:
+    default: {
+      const names = m.parameters.map((q) => q.name);
+      if (names[0] === "T" && names[1] === "S") {
+        const values = new Float64Array(names.length);
+        values[0] = T;
+        values[1] = clamp(m, 1, line.S, notes);
+        for (let k = 2; k < names.length; k++) {
+          const [lo, hi] = m.parameters[k]!.bounds;
+          values[k] = lo > 0 ? Math.sqrt(lo * hi) : (lo + hi) / 2;
+          notes.push(
+            `${names[k]} starts at the middle of its bounds (${values[k]!.toPrecision(3)} ${m.parameters[k]!.unit}): ` +
+              "no data-based rule for it.",
+          );
+        }
+        return { values, line, notes };
+      }
       throw new ModelInputError(
         `startingValues: no starting-value rule for model "${m.id}"; supported: theis, cooper-jacob, ` +
-          "hantush-jacob, thiem. Give starting values explicitly.",
+          "hantush-jacob, thiem and models whose first parameters are T and S. Give starting values explicitly.",
       );
+    }
   }
 }
