@@ -15,8 +15,8 @@ import {
 const UNITS = new Set(["m2/d", "1", "m", "1/d"]);
 
 describe("model registry and descriptors", () => {
-  it("registers the four models by id", () => {
-    expect([...modelIds].sort()).toEqual(["cooper-jacob", "hantush-jacob", "theis", "thiem"]);
+  it("registers the five fixed-geometry models by id", () => {
+    expect([...modelIds].sort()).toEqual(["cooper-jacob", "hantush-aquitard-storage", "hantush-jacob", "theis", "thiem"]);
     expect(getModel("theis")).toBe(theisModel);
     expect(getModel("cooper-jacob")).toBe(cooperJacobModel);
     expect(getModel("hantush-jacob")).toBe(hantushJacobModel);
@@ -27,7 +27,7 @@ describe("model registry and descriptors", () => {
   it("names the known ids when asked for an unknown one", () => {
     expect(() => getModel("theiss")).toThrow(UnknownModelError);
     expect(() => getModel("theiss")).toThrow(
-      'Unknown model "theiss". Known models: theis, cooper-jacob, hantush-jacob, thiem.',
+      'Unknown model "theiss". Known models: theis, cooper-jacob, hantush-jacob, hantush-aquitard-storage, thiem.',
     );
     expect(() => getModel("toString")).toThrow(UnknownModelError);
   });

@@ -54,3 +54,25 @@ export {
   type PartialPenetrationModel,
   type PenetrationObservation,
 } from "./partial-penetration.js";
+export {
+  anisotropyRatioParameter,
+  elasticStorativityParameter,
+  neumanDimensionless,
+  neumanModel,
+  neumanTypeCurves,
+  specificYieldParameter,
+  NEUMAN_SERIES_TOLERANCE,
+  NEUMAN_STEHFEST_TERMS,
+  type NeumanModel,
+  type NeumanTypeCurve,
+  type NeumanTypeCurveFamily,
+} from "./neuman.js";
+export {
+  aquitardStorativityParameter,
+  hantushAquitardStorageModel,
+  hantushStorageDimensionless,
+  hantushStorageTypeCurves,
+  LEAKY_STORAGE_STEHFEST_TERMS,
+  type HantushStorageTypeCurve,
+  type HantushStorageTypeCurveFamily,
+} from "./hantush-aquitard-storage.js";

@@ -98,7 +98,8 @@ export function neumanTransform(
   let converged = false;
   let n = 0;
   for (; n < NEUMAN_MAX_TERMS; n++) {
-    e = neumanRoot(n, c, n === 0 ? e : e + Math.PI);
+    // For n >= 1 the previous root plus pi, corrected once by the fixed point eps = n pi + atan(c / eps).
+    e = neumanRoot(n, c, n === 0 ? e : n * Math.PI + Math.atan(c / (e + Math.PI)));
     const e2 = e * e;
     const denominator = e2 + c * c + c;
     const w = (2 * c * c) / (e2 * denominator);

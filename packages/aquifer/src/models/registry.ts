@@ -3,19 +3,21 @@
  */
 import { cooperJacobModel } from "./cooper-jacob.js";
 import { UnknownModelError } from "./errors.js";
+import { hantushAquitardStorageModel } from "./hantush-aquitard-storage.js";
 import { hantushJacobModel } from "./hantush-jacob.js";
 import type { DrawdownModel } from "./model.js";
 import { theisModel } from "./theis.js";
 import { thiemModel } from "./thiem.js";
 
 /** Ids of the registered models. */
-export type ModelId = "theis" | "cooper-jacob" | "hantush-jacob" | "thiem";
+export type ModelId = "theis" | "cooper-jacob" | "hantush-jacob" | "hantush-aquitard-storage" | "thiem";
 
 /** Every registered model, by id. */
 export const models: Readonly<Record<ModelId, DrawdownModel>> = Object.freeze({
   theis: theisModel,
   "cooper-jacob": cooperJacobModel,
   "hantush-jacob": hantushJacobModel,
+  "hantush-aquitard-storage": hantushAquitardStorageModel,
   thiem: thiemModel,
 });
 

@@ -11,6 +11,7 @@ const coefficientCache = new Map<number, Float64Array>();
 
 /** Smallest and largest N accepted by `stehfest`. */
 export const STEHFEST_MIN_TERMS = 2;
+/** Largest N accepted by `stehfest` (20): beyond it the alternating weights lose digits to cancellation. */
 export const STEHFEST_MAX_TERMS = 20;
 
 /**

@@ -1,0 +1,208 @@
+/**
+ * Neuman (1974): drawdown around a well pumping at a constant rate from an unconfined (water-table) aquifer
+ * with delayed gravity response, for fully penetrating pumping and observation wells, computed by
+ * numerical Laplace inversion.
+ *
+ *   s = Q / (4 pi T) s_D(t_s, sigma, beta),  t_s = T t / (S r^2),  sigma = S / Sy,  beta = (Kz/Kr) r^2 / b^2,
+ *   L{s_D}(p) = (2 / p) sum_{n >= 0} w_n K0(sqrt(p + beta eps_n^2)),  eps_n tan eps_n = p / (sigma beta),
+ *   w_n = 4 sin^2 eps_n / (eps_n (2 eps_n + sin 2 eps_n))   (p conjugate to t_s).
+ * Sources: Neuman, S.P. (1974), Water Resources Research 10(2), 303-312; the Laplace form as in Moench, A.F.
+ * (1997), Water Resources Research 33(6), 1397-1407, for fully penetrating wells and instantaneous drainage.
+ * The series and its truncation are in neuman-laplace.ts; the inversion is Stehfest's (neuman-stehfest.ts).
+ *
+ * Geometry: beta depends on the saturated thickness b, which is not part of ObservationGeometry and does not
+ * pass through the fitting engine's geometry records; so b is bound when the model is made:
+ * `neumanModel(b)`, one model per aquifer thickness.
+ */
+import { checkGeometry, checkParameters, checkScalar, outputArray } from "./checks.js";
+import type { DrawdownModel, ObservationGeometry, ParameterDescriptor } from "./model.js";
+import { neumanTransform, newNeumanTransform } from "./neuman-laplace.js";
+import { stehfestWithDerivatives, type TransformWithDerivatives } from "./neuman-stehfest.js";
+import { transmissivityParameter } from "./parameters.js";
+
+const FOUR_PI = 4 * Math.PI;
+
+/** Stehfest weights used by the model (even; 12 balances truncation and round-off in double precision). */
+export const NEUMAN_STEHFEST_TERMS = 12;
+/** Relative truncation tolerance of the root series at each Laplace variable. */
+export const NEUMAN_SERIES_TOLERANCE = 1e-10;
+
+/** Elastic storativity S of the saturated zone. */
+export const elasticStorativityParameter: ParameterDescriptor = {
+  name: "S",
+  label: "elastic storativity",
+  unit: "1",
+  positive: true,
+  bounds: [1e-7, 0.1],
+  description: "Volume released per unit area per unit head decline by compression of water and aquifer (early time).",
+};
+
+/** Specific yield Sy. */
+export const specificYieldParameter: ParameterDescriptor = {
+  name: "Sy",
+  label: "specific yield",
+  unit: "1",
+  positive: true,
+  bounds: [1e-4, 0.5],
+  description: "Volume drained by gravity per unit area per unit decline of the water table (late time).",
+};
+
+/** Anisotropy ratio Kz/Kr. */
+export const anisotropyRatioParameter: ParameterDescriptor = {
+  name: "KzKr",
+  label: "anisotropy ratio Kz/Kr",
+  unit: "1",
+  positive: true,
+  bounds: [1e-5, 10],
+  description: "Ratio of vertical to horizontal hydraulic conductivity; sets beta = (Kz/Kr) r^2 / b^2 at each well.",
+};
+
+/** The Neuman model with its saturated thickness bound in. */
+export interface NeumanModel extends DrawdownModel {
+  /** Saturated thickness b (m) used for beta = (Kz/Kr) r^2 / b^2. */
+  readonly saturatedThickness: number;
+}
+
+/**
+ * Dimensionless Neuman drawdown s_D = 4 pi T s / Q at dimensionless time t_s = T t / (S r^2) (> 0) for
+ * sigma = S/Sy > 0 and beta > 0. With `sensitivities` (length 4) also writes [s_D, t_s ds_D/dt_s,
+ * ds_D/dsigma, ds_D/dbeta]. Accuracy: see docs/methods-laplace-models.md (Stehfest N = 12; about 1e-4
+ * relative for t_s >= 1, worse at the earliest times where s_D is small). Source: Neuman (1974) as above.
+ */
+export function neumanDimensionless(ts: number, sigma: number, beta: number, sensitivities?: Float64Array): number {
+  const record = newNeumanTransform();
+  const transform: TransformWithDerivatives = (p, derivatives, values) => {
+    neumanTransform(p, sigma, beta, NEUMAN_SERIES_TOLERANCE, derivatives, record);
+    values[0] = record.value;
+    if (derivatives) {
+      values[1] = record.dp;
+      values[2] = record.dSigma;
+      values[3] = record.dBeta;
+    }
+  };
+  const scratch = new Float64Array(4);
+  const result = sensitivities ?? new Float64Array(4);
+  stehfestWithDerivatives(transform, ts, NEUMAN_STEHFEST_TERMS, sensitivities !== undefined, scratch, result);
+  return result[0]!;
+}
+
+/**
+ * The Neuman (1974) model for an aquifer of saturated thickness b (m, > 0); parameter vector
+ * [T (m2/d), S (1), Sy (1), Kz/Kr (1)]. Drawdown in m at times in d.
+ */
+export function neumanModel(b: number): NeumanModel {
+  checkScalar("neumanModel", "saturated thickness b", b, "m", true);
+  const model: NeumanModel = {
+    id: "neuman",
+    name: "Neuman (1974) unconfined aquifer with delayed gravity response",
+    source:
+      "Neuman, S.P. (1974). Effect of partial penetration on flow in unconfined aquifers considering delayed " +
+      "gravity response. Water Resources Research 10(2), 303-312. Laplace-domain form for fully penetrating " +
+      "wells: Moench, A.F. (1997). Flow to a well of finite diameter in a homogeneous, anisotropic water table " +
+      "aquifer. Water Resources Research 33(6), 1397-1407.",
+    assumptions: [
+      "The aquifer is unconfined, homogeneous, of uniform saturated thickness b, infinite in areal extent, " +
+        "and anisotropic with vertical and horizontal conductivities Kz and Kr; its base is impermeable.",
+      "Water is released by compression (S) throughout and by gravity drainage at the water table (Sy); " +
+        "drainage follows the fall of the water table instantly (no unsaturated-zone lag).",
+      "Drawdown is small compared with b, so the water-table condition is linearised at its initial height.",
+      "Pumping and observation wells fully penetrate the saturated thickness; the well has an infinitesimal " +
+        "radius (no well-bore storage) and pumps at a constant rate.",
+    ],
+    validity: [
+      "All t > 0 and S < Sy; early data follow Theis with S, late data Theis with S + Sy, joined by a flat " +
+        "stretch whose level is set by beta = (Kz/Kr) r^2 / b^2.",
+      "Drawdown at or below roughly 10 % of b (common practice, no source); larger drawdown reduces the " +
+        "transmissivity and breaks the linearised water-table condition.",
+      "beta between about 1e-3 and 10; smaller beta needs many series terms (slower), larger beta makes the " +
+        "curve indistinguishable from Theis with S + Sy.",
+    ],
+    cautions: [
+      "Sy from a test that ends on the flat stretch is not determined; fitting it anyway gives a number set " +
+        "by the bounds or the start. Do not project long-term yield or dewatering beyond the tested duration " +
+        "from such an Sy.",
+      "A slowly draining unsaturated zone (fine sediments) makes the late data rise more slowly than this " +
+        "model, biasing Sy low (Moench 1997 adds a drainage constant for this).",
+      "The flat stretch is also produced by leakage or a recharge boundary; the interpretation needs the " +
+        "geology and, ideally, several observation distances.",
+    ],
+    parameters: [transmissivityParameter, elasticStorativityParameter, specificYieldParameter, anisotropyRatioParameter],
+    saturatedThickness: b,
+
+    drawdown(p: ArrayLike<number>, geometry: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {
+      checkParameters(model, p);
+      checkGeometry(model.name, geometry);
+      const [T, S, Sy, kappa] = [p[0]!, p[1]!, p[2]!, p[3]!];
+      const result = outputArray(model.name, t.length, out);
+      const coef = geometry.Q / (FOUR_PI * T);
+      const tsPerDay = T / (S * geometry.r * geometry.r);
+      const sigma = S / Sy;
+      const beta = (kappa * geometry.r * geometry.r) / (b * b);
+      for (let i = 0; i < t.length; i++) {
+        const ti = t[i]!;
+        result[i] = ti > 0 ? coef * neumanDimensionless(ti * tsPerDay, sigma, beta) : ti <= 0 ? 0 : Number.NaN;
+      }
+      return result;
+    },
+
+    jacobian(p: ArrayLike<number>, geometry: ObservationGeometry, t: ArrayLike<number>): Float64Array[] {
+      checkParameters(model, p);
+      checkGeometry(model.name, geometry);
+      const [T, S, Sy, kappa] = [p[0]!, p[1]!, p[2]!, p[3]!];
+      const coef = geometry.Q / (FOUR_PI * T);
+      const tsPerDay = T / (S * geometry.r * geometry.r);
+      const sigma = S / Sy;
+      const beta = (kappa * geometry.r * geometry.r) / (b * b);
+      const columns = [0, 1, 2, 3].map(() => new Float64Array(t.length));
+      const d = new Float64Array(4);
+      for (let i = 0; i < t.length; i++) {
+        const ti = t[i]!;
+        if (!(ti > 0)) {
+          if (!(ti <= 0)) for (const column of columns) column[i] = Number.NaN;
+          continue;
+        }
+        neumanDimensionless(ti * tsPerDay, sigma, beta, d);
+        // d[1] = t_s ds_D/dt_s, d[2] = ds_D/dsigma, d[3] = ds_D/dbeta; chain rule in ln parameters.
+        const s = coef * d[0]!;
+        columns[0]![i] = (-s + coef * d[1]!) / T;
+        columns[1]![i] = (coef * (-d[1]! + sigma * d[2]!)) / S;
+        columns[2]![i] = (-coef * sigma * d[2]!) / Sy;
+        columns[3]![i] = (coef * beta * d[3]!) / kappa;
+      }
+      return columns;
+    },
+  };
+  return model;
+}
+
+/** One Neuman type curve: s_D against t_s for one beta. */
+export interface NeumanTypeCurve {
+  readonly beta: number;
+  /** s_D = 4 pi T s / Q at each t_s of the family. */
+  readonly sD: Float64Array;
+}
+
+/** A family of Neuman type curves for one sigma. */
+export interface NeumanTypeCurveFamily {
+  readonly sigma: number;
+  /** Dimensionless times t_s = T t / (S r^2); t_y = sigma t_s = T t / (Sy r^2). */
+  readonly ts: Float64Array;
+  readonly curves: NeumanTypeCurve[];
+}
+
+/**
+ * Neuman type curves s_D(t_s) for sigma = S/Sy (> 0) and each beta (> 0), at the given t_s (> 0). Plot
+ * against 4 t_s (= 1/u_A) for the early branch and 4 sigma t_s (= 1/u_B) for the late one. Source: Neuman (1974).
+ */
+export function neumanTypeCurves(ts: ArrayLike<number>, sigma: number, betas: ArrayLike<number>): NeumanTypeCurveFamily {
+  checkScalar("neumanTypeCurves", "sigma = S/Sy", sigma, "1", true);
+  const x = Float64Array.from(ts);
+  for (let i = 0; i < x.length; i++) checkScalar("neumanTypeCurves", `t_s at index ${i}`, x[i]!, "1", true);
+  const curves: NeumanTypeCurve[] = [];
+  for (let k = 0; k < betas.length; k++) {
+    const beta = betas[k]!;
+    checkScalar("neumanTypeCurves", `beta at index ${k}`, beta, "1", true);
+    curves.push({ beta, sD: x.map((v) => neumanDimensionless(v, sigma, beta)) });
+  }
+  return { sigma, ts: x, curves };
+}
