@@ -36,7 +36,7 @@ export const aquitardStorativityParameter: ParameterDescriptor = {
 /**
  * Dimensionless drawdown s_D = 4 pi T s / Q at t_D = T t / (S r^2) > 0 for rho = r/B > 0 and gamma = S'/S >= 0.
  * With `sensitivities` (length 4) also writes [s_D, t_D ds_D/dt_D, ds_D/drho, ds_D/dgamma]. Accuracy: see
- * docs/methods-laplace-models.md. Source: Hantush (1960), Laplace form of Moench (1985).
+ * docs/methods.md (Laplace-domain models). Source: Hantush (1960), Laplace form of Moench (1985).
  */
 export function hantushStorageDimensionless(tD: number, rho: number, gamma: number, sensitivities?: Float64Array): number {
   const transform: TransformWithDerivatives = (p, derivatives, values) =>

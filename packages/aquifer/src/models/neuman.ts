@@ -66,7 +66,7 @@ export interface NeumanModel extends DrawdownModel {
 /**
  * Dimensionless Neuman drawdown s_D = 4 pi T s / Q at dimensionless time t_s = T t / (S r^2) (> 0) for
  * sigma = S/Sy > 0 and beta > 0. With `sensitivities` (length 4) also writes [s_D, t_s ds_D/dt_s,
- * ds_D/dsigma, ds_D/dbeta]. Accuracy: see docs/methods-laplace-models.md (Stehfest N = 12; about 1e-4
+ * ds_D/dsigma, ds_D/dbeta]. Accuracy: see docs/methods.md (Laplace-domain models) (Stehfest N = 12; about 1e-4
  * relative for t_s >= 1, worse at the earliest times where s_D is small). Source: Neuman (1974) as above.
  */
 export function neumanDimensionless(ts: number, sigma: number, beta: number, sensitivities?: Float64Array): number {
