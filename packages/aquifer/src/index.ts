@@ -15,3 +15,4 @@ export * from "./steptest/index.js";
 export * from "./slug/index.js";
 export * from "./superposition/index.js";
 export * from "./forecast/index.js";
+export * from "./analysis/index.js";

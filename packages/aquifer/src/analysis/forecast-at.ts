@@ -1,0 +1,177 @@
+/**
+ * forecastAt: drawdown forecasts around one pumping well in the units of the practitioner (distances, times and
+ * rates with their units, drawdown in a chosen length unit), with the uncertainty bands of forecastDrawdown. Values
+ * are converted to base units and back with the units module only.
+ */
+import { isRateSchedule, type PumpingRate, type ValueWithUnit } from "../data/index.js";
+import type { FitParameter, FitResult } from "../fit/index.js";
+import { forecastDrawdown, type ForecastUncertainty, type GivenParameters } from "../forecast/index.js";
+import { getModel, type DrawdownModel } from "../models/index.js";
+import { convertArray } from "../units/index.js";
+import { AnalysisInputError } from "./errors.js";
+import { convertAt } from "./unit-values.js";
+
+/** The parts of a fit result a forecast reads (a FitResult has them all; plain data from a cell may carry just these). */
+export interface ForecastableFit {
+  readonly modelId: string;
+  readonly parameters: readonly Pick<FitParameter, "name" | "estimate">[];
+  /** Names of the free parameters, in covariance order. */
+  readonly freeParameters: readonly string[];
+  /** Covariance of the free parameters, base units. */
+  readonly covariance: readonly (readonly number[])[] | readonly ArrayLike<number>[];
+}
+
+/** A forecast point at a distance from the pumping well. */
+export interface DistancePoint {
+  readonly name: string;
+  readonly distance: ValueWithUnit;
+}
+
+/** Options of {@link forecastAt}. */
+export interface ForecastAtOptions {
+  /** The fit whose estimates (and covariance, for bands) are used. */
+  readonly fit: ForecastableFit | FitResult;
+  /** The model to forecast with; default the fit's model (the base model of a "+schedule" fit). */
+  readonly model?: DrawdownModel | string;
+  readonly points: readonly DistancePoint[];
+  /** Times since pumping started, in `unit`. */
+  readonly times: { readonly values: ArrayLike<number>; readonly unit: string };
+  /** A constant rate, or a schedule whose step starts are in `times.unit`. */
+  readonly rate: PumpingRate;
+  /** Default "none". */
+  readonly uncertainty?: ForecastUncertainty;
+  /** Length unit of the forecast drawdowns. */
+  readonly lengthUnit: string;
+}
+
+/** The forecast at one point, in the requested units. */
+export interface PointForecastInUnits {
+  readonly name: string;
+  readonly distance: ValueWithUnit;
+  /** Times, in the result's timeUnit. */
+  readonly times: Float64Array;
+  /** Drawdown at the estimates and its band, in the result's lengthUnit; band fields null for "none". */
+  readonly drawdown: Float64Array;
+  readonly standardDeviation: Float64Array | null;
+  readonly p05: Float64Array | null;
+  readonly p50: Float64Array | null;
+  readonly p95: Float64Array | null;
+  readonly mean: Float64Array | null;
+}
+
+/** Result of {@link forecastAt}. */
+export interface ForecastAtResult {
+  readonly modelId: string;
+  readonly method: "none" | "linear" | "monte-carlo";
+  readonly lengthUnit: string;
+  readonly timeUnit: string;
+  readonly points: PointForecastInUnits[];
+  readonly uncertainParameters: string[];
+  readonly samples: number | null;
+  readonly seed: number | null;
+  readonly notes: string[];
+}
+
+const WHERE = "forecastAt";
+
+/** The model to forecast with: the given one, or the fit's model; fits with boundaries or several wells are refused. */
+function forecastModel(fit: ForecastableFit, model: DrawdownModel | string | undefined): DrawdownModel {
+  if (model !== undefined) return typeof model === "string" ? getModel(model) : model;
+  const [baseId, wrapper] = fit.modelId.split("+");
+  if (wrapper !== undefined && wrapper !== "schedule") {
+    throw new AnalysisInputError(
+      `${WHERE}: the fit is of "${fit.modelId}", whose ${wrapper} are not part of the fit result; forecastAt forecasts around one well without ` +
+        "boundaries. Use forecastDrawdown with the same wells and boundaries, or pass model explicitly if ignoring them is intended.",
+    );
+  }
+  return getModel(baseId!);
+}
+
+/**
+ * Estimates and covariance (base units) of a fit as the given-parameters input of forecastDrawdown. The forecasts
+ * then work in the fit's own space: fitModel fits exactly the positive parameters in ln space, which is what
+ * forecastDrawdown assumes for given parameters (forecast/parameters.ts), so the numbers are those of { fit }.
+ * @throws AnalysisInputError when the fit is of another model or lacks one of the model's parameters.
+ */
+export function fitAsGivenParameters(where: string, fit: ForecastableFit, model: DrawdownModel): GivenParameters {
+  if (fit.modelId !== model.id && !fit.modelId.startsWith(`${model.id}+`)) {
+    throw new AnalysisInputError(`${where}: the fit is of model "${fit.modelId}" but the forecast uses "${model.id}"; forecast with the model that was fitted.`);
+  }
+  const parameters: Record<string, number> = {};
+  for (const d of model.parameters) {
+    const fp = fit.parameters.find((q) => q.name === d.name);
+    if (!fp) throw new AnalysisInputError(`${where}: the fit has no parameter ${d.name} (${d.label}).`);
+    parameters[d.name] = fp.estimate;
+  }
+  const matrix = fit.covariance.map((row) => Array.from(row));
+  return { parameters, covariance: { names: [...fit.freeParameters], matrix } };
+}
+
+/** The rate as pumping steps in base units (d, m3/d), step starts in `timeUnit`. */
+function stepsInBase(rate: PumpingRate, timeUnit: string): { start: number; rate: number }[] {
+  if (!rate || typeof rate.unit !== "string") throw new AnalysisInputError(`${WHERE}: rate must be { value, unit } or { unit, steps: [{ start, rate }] }.`);
+  if (!isRateSchedule(rate)) return [{ start: 0, rate: convertAt(WHERE, "rate", rate.value, rate.unit, "m3/d") }];
+  const starts = convertArray(rate.steps.map((s) => s.start), timeUnit, "d");
+  return rate.steps.map((s, i) => ({ start: starts[i]!, rate: convertAt(WHERE, "rate", s.rate, rate.unit, "m3/d") }));
+}
+
+/**
+ * Drawdown forecast in `lengthUnit` at points given by their distance (with unit) from one pumping well, at times
+ * (with unit) for a constant rate or a schedule (with unit), from a fit: the estimates and, with uncertainty
+ * "linear" or { monteCarlo }, the 5/50/95 % band and standard deviation of forecastDrawdown (delta method,
+ * JCGM 100:2008 section 5.1; or seeded Monte Carlo in the fit's space). Conversions by the units module.
+ * @throws UnitError (units module) for a unit of the wrong dimension; AnalysisInputError and ForecastInputError
+ *   for unusable input.
+ */
+export function forecastAt(options: ForecastAtOptions): ForecastAtResult {
+  const { fit } = options;
+  if (!fit || typeof fit.modelId !== "string" || !Array.isArray(fit.parameters)) {
+    throw new AnalysisInputError(`${WHERE}: fit must be a fit result (from fitModel or fitSeries).`);
+  }
+  const model = forecastModel(fit, options.model);
+  if (!Array.isArray(options.points) || options.points.length === 0) {
+    throw new AnalysisInputError(`${WHERE}: no points given; pass points: [{ name, distance: { value, unit } }].`);
+  }
+  const lengthUnit = options.lengthUnit;
+  convertAt(WHERE, "lengthUnit", 1, "m", lengthUnit);
+  if (!options.times || typeof options.times.unit !== "string") {
+    throw new AnalysisInputError(`${WHERE}: times must be { values, unit }, e.g. { values: [1, 10, 100], unit: "d" }.`);
+  }
+  const timeUnit = options.times.unit;
+  convertAt(WHERE, "times.unit", 1, timeUnit, "d");
+  const t = convertArray(options.times.values, timeUnit, "d");
+  const distances = options.points.map((p, i) => {
+    if (!p?.distance) throw new AnalysisInputError(`${WHERE}: point ${i} ("${p?.name}") needs distance: { value, unit }.`);
+    return convertAt(WHERE, `points[${i}].distance`, p.distance.value, p.distance.unit, "m");
+  });
+  const result = forecastDrawdown({
+    model,
+    ...fitAsGivenParameters(WHERE, fit, model),
+    schedule: [{ name: "pumping well", x: 0, y: 0, steps: stepsInBase(options.rate, timeUnit) }],
+    points: options.points.map((p, i) => ({ name: p.name, r: distances[i]! })),
+    times: t,
+    uncertainty: options.uncertainty ?? "none",
+  });
+  const inUnit = (values: Float64Array | null) => (values === null ? null : convertArray(values, "m", lengthUnit));
+  return {
+    modelId: model.id,
+    method: result.method,
+    lengthUnit,
+    timeUnit,
+    points: result.points.map((p, i) => ({
+      name: p.name,
+      distance: { value: options.points[i]!.distance.value, unit: options.points[i]!.distance.unit },
+      times: Float64Array.from(options.times.values),
+      drawdown: convertArray(p.drawdown, "m", lengthUnit),
+      standardDeviation: inUnit(p.standardDeviation),
+      p05: inUnit(p.p05),
+      p50: inUnit(p.p50),
+      p95: inUnit(p.p95),
+      mean: inUnit(p.mean),
+    })),
+    uncertainParameters: result.uncertainParameters,
+    samples: result.samples,
+    seed: result.seed,
+    notes: result.notes,
+  };
+}
