@@ -9,9 +9,34 @@
  * docs/api.md ("Inside a cell") lists these functions for users; keep the two in step.
  */
 import {
+  agarwalEquivalentTime,
+  boundariesFromRecords,
+  bouwerRiceSlugTest,
+  cbpNormalizedHead,
+  compareModels,
   convert,
   convertArray,
+  cooperBredehoeftPapadopulosFit,
+  cooperJacobDistance,
   cooperJacobLine,
+  correctBarometric,
+  correctJacobUnconfined,
+  distanceToThreshold,
+  estimateBarometricEfficiency,
+  fitAsGivenParameters,
+  fitSeries,
+  forecastAt,
+  forecastDrawdown,
+  hantushBierschenkStepTest,
+  hvorslevSlugTest,
+  jacobStepTest,
+  recoveryAsDrawdown,
+  removeLinearTrend,
+  rorabaughStepTest,
+  schemeDrawdown,
+  stepEndDrawdowns,
+  theisRecoveryLine,
+  thiemDistance,
   cooperJacobValidity,
   createObservationSeries,
   describeUnit,
@@ -41,8 +66,17 @@ import {
   thiemTwoWells,
   toBaseUnits,
   transmissivityFromDerivativeLevel,
+  type BarometricEfficiencyEstimate,
   type BourdetOptions,
+  type BoundaryRecord,
+  type ComparableFit,
   type FitOptions,
+  type FitSeriesOptions,
+  type ForecastableFit,
+  type ForecastAtOptions,
+  type ForecastUncertainty,
+  type GivenParameters,
+  type PumpingWell,
   type ObservationCsvOptions,
   type ObservationSeries,
   type ObservationWell,
@@ -263,21 +297,21 @@ const parametersArg = oneOf(numbersArg({}, 1), mapOf(finite));
  * The parameter vector of model `id` from a vector (descriptor order) or a record by name; a missing or
  * unknown name is an ArgumentError listing the model's parameters with their units.
  */
-function parameterVector(id: string, values: Float64Array | Record<string, number>): Float64Array {
+function parameterVector(id: string, values: Float64Array | Record<string, number>, where = "aq.drawdown"): Float64Array {
   const { parameters } = getModel(id);
   const list = parameters.map((p) => `${p.name} (${p.label}, ${p.unit})`).join(", ");
   if (values instanceof Float64Array) {
     if (values.length !== parameters.length) {
-      throw new ArgumentError(`aq.drawdown: model "${id}" takes ${parameters.length} parameters in this order: ${list}; got ${values.length}`);
+      throw new ArgumentError(`${where}: model "${id}" takes ${parameters.length} parameters in this order: ${list}; got ${values.length}`);
     }
     return values;
   }
   for (const key of Object.keys(values)) {
-    if (!parameters.some((p) => p.name === key)) throw new ArgumentError(`aq.drawdown: model "${id}" has no parameter "${key}"; its parameters are ${list}`);
+    if (!parameters.some((p) => p.name === key)) throw new ArgumentError(`${where}: model "${id}" has no parameter "${key}"; its parameters are ${list}`);
   }
   return Float64Array.from(parameters, (p) => {
     const v = values[p.name];
-    if (v === undefined) throw new ArgumentError(`aq.drawdown: parameter ${p.name} of model "${id}" is missing; its parameters are ${list}`);
+    if (v === undefined) throw new ArgumentError(`${where}: parameter ${p.name} of model "${id}" is missing; its parameters are ${list}`);
     return v;
   });
 }
@@ -322,6 +356,183 @@ const staticLevelArg = oneOf(
     lengthUnit: stringArg(),
   }),
 );
+
+// ---- Argument shapes of the corrections, step, slug, recovery, distance and forecasting methods ---------------
+
+/** A pair of numbers that may be NaN (an interval a result carries back), as [low, high]. */
+const pairOrNaN = refine(numbersArg({ allowNonFinite: true }, 2), "an array of two numbers [low, high]", (v, at): readonly [number, number] => {
+  if (v.length !== 2) throw new ArgumentError(`${at} must be an array of two numbers [low, high], got ${v.length} numbers`);
+  return [v[0]!, v[1]!];
+});
+const anyNumber = numberArg({ allowNonFinite: true });
+
+const barometricFields = {
+  levels: samples,
+  levelKind: stringArg(["depth-to-water", "drawdown", "head"]),
+  levelUnit: stringArg(),
+  pressures: samples,
+  pressureUnit: stringArg(),
+};
+
+/** A barometric efficiency as aq.estimateBarometricEfficiency returned it (only the fields the correction reads). */
+const efficiencyEstimateArg: Validator<BarometricEfficiencyEstimate> = pickArg({
+  efficiency: finite,
+  standardError: anyNumber,
+  interval95: pairOrNaN,
+  rSquared: anyNumber,
+  n: numberArg({ min: 0, integer: true }),
+  method: stringArg(["differences", "levels"]),
+  intercept: anyNumber,
+  levelUnit: stringArg(),
+  warnings: stringsArg(),
+}) as Validator<BarometricEfficiencyEstimate>;
+
+const stepInputArg = recordArg({
+  rateUnit: stringArg(),
+  drawdownUnit: stringArg(),
+  steps: arrayOf(recordArg({ rate: finite, drawdown: finite }), 1),
+});
+
+const slugRecordArg = recordArg({
+  name: stringArg(),
+  times: samples,
+  timeUnit: stringArg(),
+  displacements: samples,
+  lengthUnit: stringArg(),
+  initialDisplacement: quantityArg,
+});
+const slugRangeArg = recordArg({
+  fromTime: optional(finite),
+  toTime: optional(finite),
+  minNormalizedHead: optional(finite),
+  maxNormalizedHead: optional(finite),
+});
+const slugLineOptionsArg = recordArg({ range: optional(slugRangeArg), throughOrigin: optional(booleanArg) });
+
+const uncertaintyArg: Validator<ForecastUncertainty> = oneOf(
+  stringArg(["none", "linear"]),
+  recordArg({ monteCarlo: recordArg({ samples: numberArg({ min: 10, max: 1e6, integer: true }), seed: numberArg({ integer: true }) }) }),
+) as Validator<ForecastUncertainty>;
+
+/** A fit result as plain data, with the fields a forecast reads (the result of aq.fitModel or aq.fitSeries as it is). */
+const forecastableFitArg: Validator<ForecastableFit> = pickArg({
+  modelId: stringArg(),
+  parameters: arrayOf(pickArg({ name: stringArg(), estimate: finite }), 1),
+  freeParameters: stringsArg(),
+  covariance: arrayOf(numbersArg({ allowNonFinite: true }, 0)),
+});
+
+/** A fit result as plain data, with the fields a model comparison reads. */
+const comparableFitArg: Validator<ComparableFit> = pickArg({
+  modelId: stringArg(),
+  n: numberArg({ min: 1, integer: true }),
+  p: numberArg({ min: 0, integer: true }),
+  aic: anyNumber,
+  bic: anyNumber,
+  aicc: oneOf(nullArg, anyNumber),
+  rmse: nonNegative,
+  converged: booleanArg,
+  residuals: arrayOf(pickArg({ name: stringArg(), observed: samples }), 1),
+});
+
+const pumpingStepsArg = arrayOf(recordArg({ start: finite, rate: finite }), 1);
+const pumpingWellArg: Validator<PumpingWell> = recordArg({ name: stringArg(), x: finite, y: finite, steps: pumpingStepsArg });
+/** A straight boundary seen from the first pumping well: kind, distance (m), angle (degrees from +x towards the line). */
+const boundaryRecordArg: Validator<BoundaryRecord> = recordArg({ kind: stringArg(["constant-head", "no-flow"]), distance: positive, angle: finite }) as Validator<BoundaryRecord>;
+
+const forecastSchemeFields = recordArg({
+  model: modelIdArg,
+  fit: optional(forecastableFitArg),
+  parameters: optional(mapOf(finite)),
+  covariance: optional(recordArg({ names: stringsArg(), matrix: arrayOf(numbersArg({ allowNonFinite: true }, 0)) })),
+  wells: arrayOf(pumpingWellArg, 1),
+  points: arrayOf(recordArg({ name: stringArg(), x: optional(finite), y: optional(finite), r: optional(positive) }), 1),
+  times: samples,
+  boundaries: optional(arrayOf(boundaryRecordArg)),
+  tolerance: optional(positive),
+  uncertainty: optional(uncertaintyArg),
+});
+/** Options of aq.forecastDrawdown: exactly one of fit or parameters (with an optional covariance). */
+const forecastSchemeArg = refine(forecastSchemeFields, forecastSchemeFields.expects, (o, at) => {
+  if ((o.fit === undefined) === (o.parameters === undefined)) {
+    throw new ArgumentError(`${at} needs exactly one of fit (a fit result) or parameters (values by name, base units)`);
+  }
+  if (o.fit !== undefined && o.covariance !== undefined) {
+    throw new ArgumentError(`${at} gives both fit and covariance; the fit carries its own covariance`);
+  }
+  return o;
+});
+
+/** forecastDrawdown with the model by id, the fit as plain data and boundaries as records seen from the first well. */
+function forecastScheme(o: Checked<typeof forecastSchemeArg>): unknown {
+  const model = getModel(o.model);
+  const given: GivenParameters = o.fit
+    ? fitAsGivenParameters("aq.forecastDrawdown", o.fit, model)
+    : { parameters: o.parameters!, ...(o.covariance ? { covariance: { names: o.covariance.names, matrix: o.covariance.matrix.map((row) => Array.from(row)) } } : {}) };
+  return forecastDrawdown({
+    model,
+    ...given,
+    schedule: o.wells,
+    points: o.points,
+    times: o.times,
+    boundaries: boundariesFromRecords(o.wells[0]!, o.boundaries ?? []),
+    tolerance: o.tolerance,
+    uncertainty: o.uncertainty,
+  });
+}
+
+const schemeDrawdownArg = recordArg({
+  model: modelIdArg,
+  parameters: parametersArg,
+  wells: arrayOf(pumpingWellArg, 1),
+  boundaries: optional(arrayOf(boundaryRecordArg)),
+  point: recordArg({ x: finite, y: finite }),
+  t: samples,
+  tolerance: optional(positive),
+  jacobian: optional(booleanArg),
+});
+
+/** schemeDrawdown with the model by id and boundaries as records seen from the first well. */
+function schemeDrawdownFromRecords(o: Checked<typeof schemeDrawdownArg>): unknown {
+  return schemeDrawdown(
+    getModel(o.model),
+    parameterVector(o.model, o.parameters, "aq.schemeDrawdown"),
+    { wells: o.wells, boundaries: boundariesFromRecords(o.wells[0]!, o.boundaries ?? []), tolerance: o.tolerance, jacobian: o.jacobian },
+    o.point,
+    o.t,
+  );
+}
+
+const numberOrQuantity = oneOf(finite, quantityArg);
+const fitSeriesArg = refine(
+  recordArg({
+    model: modelIdArg,
+    series: arrayOf(seriesArg, 1),
+    start: optional(mapOf(numberOrQuantity)),
+    fixed: optional(mapOf(numberOrQuantity)),
+    bounds: optional(mapOf(oneOf(rangeArg, recordArg({ low: finite, high: finite, unit: stringArg() })))),
+    reportUnits: optional(mapOf(stringArg())),
+    lengthUnit: optional(stringArg()),
+    jacobian: optional(stringArg(["analytic", "forward", "central"])),
+    ftol: optional(positive),
+    xtol: optional(positive),
+    gtol: optional(positive),
+    maxEvaluations: optional(numberArg({ min: 1, max: 100000, integer: true })),
+    correlationWarning: optional(numberArg({ min: 0, max: 1, exclusiveMin: true })),
+  }),
+  "series fit options { model, series, start?, fixed?, bounds?, reportUnits?, lengthUnit?, jacobian?, ftol?, xtol?, gtol?, maxEvaluations?, correlationWarning? }",
+  (o): FitSeriesOptions => ({ ...o, jacobian: o.jacobian as FitSeriesOptions["jacobian"] }),
+);
+
+const forecastAtArg = recordArg({
+  fit: forecastableFitArg,
+  model: optional(modelIdArg),
+  points: arrayOf(recordArg({ name: stringArg(), distance: quantityArg }), 1),
+  times: recordArg({ values: samples, unit: stringArg() }),
+  rate: pumpingRateArg,
+  uncertainty: optional(uncertaintyArg),
+  lengthUnit: stringArg(),
+});
 
 /** A unit as plain data: the symbol, its dimension (exponents of L, T, M and a name) and the factor to base units. */
 function describeParsedUnit(text: string): unknown {
@@ -463,6 +674,142 @@ export const AQUIFER_API: Readonly<Record<string, BridgeEntry>> = {
     "Least-squares fit of model id to one or more wells: estimates, standard errors, 95 % intervals, RMSE, AIC, BIC, residuals",
     [arg("options", fitOptionsArg)],
     (options) => fitModel(options),
+  ),
+  "aq.estimateBarometricEfficiency": fn(
+    "Barometric efficiency BE (1) by regression of levels on barometric pressure as water column { levels, levelKind, levelUnit, pressures, pressureUnit, method? }",
+    [arg("options", recordArg({ ...barometricFields, method: optional(stringArg(["differences", "levels"])) }))],
+    (options) => estimateBarometricEfficiency(options as Parameters<typeof estimateBarometricEfficiency>[0]),
+  ),
+  "aq.correctBarometric": fn(
+    "Levels corrected for barometric pressure with BE (a number or an estimate): { values (levelUnit), record }",
+    [arg("options", recordArg({ ...barometricFields, efficiency: oneOf(finite, efficiencyEstimateArg), referencePressure: optional(finite) }))],
+    (options) => correctBarometric(options as Parameters<typeof correctBarometric>[0]),
+  ),
+  "aq.removeLinearTrend": fn(
+    "Readings with the pre-test linear trend removed { times, values, pumpingStart, timeUnit, valueUnit }: { values, trend, record }",
+    [arg("options", recordArg({ times: samples, values: samples, pumpingStart: finite, timeUnit: stringArg(), valueUnit: stringArg() }))],
+    (options) => removeLinearTrend(options),
+  ),
+  "aq.correctJacobUnconfined": fn(
+    "Jacob (1944) unconfined correction s' = s - s^2/(2b) { drawdowns, lengthUnit, saturatedThickness: { value, unit } }: { values, record }",
+    [arg("options", recordArg({ drawdowns: samples, lengthUnit: stringArg(), saturatedThickness: quantityArg }))],
+    (options) => correctJacobUnconfined(options),
+  ),
+  "aq.jacobStepTest": fn(
+    "Jacob (1947) step test s_w = B Q + C Q^2 from { rateUnit, drawdownUnit, steps: [{ rate, drawdown }] }: B (d/m2), C (d2/m5), efficiency per step",
+    [arg("input", stepInputArg)],
+    (input) => jacobStepTest(input),
+  ),
+  "aq.rorabaughStepTest": fn(
+    "Rorabaugh (1953) step test s_w = B Q + C Q^n: B, C, n with standard errors and efficiency per step; options { exponentBounds?, startExponent? }",
+    [arg("input", stepInputArg), arg("options", optional(recordArg({ exponentBounds: optional(rangeArg), startExponent: optional(finite) })))],
+    (input, options) => rorabaughStepTest(input, options),
+  ),
+  "aq.hantushBierschenkStepTest": fn(
+    "Hantush-Bierschenk (1964) step test from a stepped drawdown series: B(dt), C, increments; options { elapsed? (d), tailFraction? }",
+    [arg("series", seriesArg), arg("options", optional(recordArg({ elapsed: optional(positive), tailFraction: optional(positive) })))],
+    (series, options) => hantushBierschenkStepTest(series, options),
+  ),
+  "aq.stepEndDrawdowns": fn(
+    "Step-end drawdowns of a stepped series: { input (m3/d, m; ready for aq.jacobStepTest), readings, method, warnings }",
+    [arg("series", seriesArg)],
+    (series) => stepEndDrawdowns(series),
+  ),
+  "aq.hvorslevSlugTest": fn(
+    "Hvorslev (1951) K (m/d) from a slug record { name, times, timeUnit, displacements, lengthUnit, initialDisplacement } and { casingRadius, intakeRadius, intakeLength }",
+    [arg("record", slugRecordArg), arg("geometry", recordArg({ casingRadius: quantityArg, intakeRadius: quantityArg, intakeLength: quantityArg })), arg("options", optional(slugLineOptionsArg))],
+    (record, geometry, options) => hvorslevSlugTest(record, geometry, options),
+  ),
+  "aq.bouwerRiceSlugTest": fn(
+    "Bouwer-Rice (1976) K (m/d) from a slug record and { casingRadius, wellRadius, screenLength, screenBottomDepth, saturatedThickness }",
+    [
+      arg("record", slugRecordArg),
+      arg("geometry", recordArg({ casingRadius: quantityArg, wellRadius: quantityArg, screenLength: quantityArg, screenBottomDepth: quantityArg, saturatedThickness: quantityArg })),
+      arg("options", optional(slugLineOptionsArg)),
+    ],
+    (record, geometry, options) => bouwerRiceSlugTest(record, geometry, options),
+  ),
+  "aq.cooperBredehoeftPapadopulosFit": fn(
+    "Cooper-Bredehoeft-Papadopulos (1967) fit of T (m2/d) and S to a slug record with { casingRadius, wellRadius, aquiferThickness? }",
+    [
+      arg("record", slugRecordArg),
+      arg("geometry", recordArg({ casingRadius: quantityArg, wellRadius: quantityArg, aquiferThickness: optional(quantityArg) })),
+      arg("options", optional(recordArg({
+        range: optional(slugRangeArg),
+        start: optional(recordArg({ T: optional(positive), S: optional(positive) })),
+        fixedS: optional(positive),
+        boundsT: optional(rangeArg),
+        boundsS: optional(rangeArg),
+      }))),
+    ],
+    (record, geometry, options) => cooperBredehoeftPapadopulosFit(record, geometry, options),
+  ),
+  "aq.cbpNormalizedHead": fn(
+    "Cooper-Bredehoeft-Papadopulos (1967) H/H0 for alpha = rw^2 S/rc^2 > 0 and beta = T t/rc^2 >= 0 (dimensionless)",
+    [arg("alpha", positive), arg("beta", nonNegative)],
+    (alpha, beta) => cbpNormalizedHead(alpha, beta),
+  ),
+  "aq.theisRecoveryLine": fn(
+    "Theis (1935) recovery line: T (m2/d) from residual drawdown s' (m) against log t/t' { tp (d), dt (d), residual (m), Q (m3/d), maxRatio?, screen? }",
+    [arg("input", recordArg({ tp: positive, dt: samples, residual: samples, Q: finite, maxRatio: optional(finite), screen: optional(recordArg({ r: positive, S: positive, uMax: optional(positive) })) }))],
+    (input) => theisRecoveryLine(input),
+  ),
+  "aq.agarwalEquivalentTime": fn(
+    "Agarwal (1980) equivalent time te = tp dt/(tp + dt), d, for pumping duration tp (d) and time since the stop dt (d)",
+    [arg("tp", positive), arg("dt", positive)],
+    (tp, dt) => agarwalEquivalentTime(tp, dt),
+  ),
+  "aq.recoveryAsDrawdown": fn(
+    "Recovery as drawdown at Agarwal equivalent times: { te (d), s (m) } from tp (d), drawdown at the stop (m), dt (d), residual drawdowns (m)",
+    [arg("tp", positive), arg("sAtStop", finite), arg("dt", samples), arg("residual", samples)],
+    (tp, sAtStop, dt, residual) => recoveryAsDrawdown(tp, sAtStop, dt, residual),
+  ),
+  "aq.cooperJacobDistance": fn(
+    "Cooper-Jacob distance-drawdown line { r (m), s (m), Q (m3/d), t (d), uMax? }: T (m2/d), S, slope per log cycle, r0",
+    [arg("input", recordArg({ r: samples, s: samples, Q: finite, t: positive, uMax: optional(positive) }))],
+    (input) => cooperJacobDistance(input),
+  ),
+  "aq.thiemDistance": fn(
+    "Thiem steady distance-drawdown { r (m), s (m), Q (m3/d) }: T (m2/d), radius of influence R (m)",
+    [arg("input", recordArg({ r: samples, s: samples, Q: finite }))],
+    (input) => thiemDistance(input),
+  ),
+  "aq.distanceToThreshold": fn(
+    "Radius r* (m) where drawdown of model id after pumping Q (m3/d) for t (d) equals threshold (m); options { rMin?, rMax? } (m)",
+    [
+      arg("model", modelIdArg),
+      arg("parameters", parametersArg),
+      arg("Q", finite),
+      arg("t", finite),
+      arg("threshold", finite),
+      arg("options", optional(recordArg({ rMin: optional(positive), rMax: optional(positive) }))),
+    ],
+    (model, parameters, Q, t, threshold, options) => distanceToThreshold(getModel(model), parameters, Q, t, threshold, options),
+  ),
+  "aq.forecastDrawdown": fn(
+    "Drawdown forecast (m) at points (m) and times (d) for wells [{ name, x, y, steps }] and boundaries [{ kind, distance (m), angle (deg) }], from a fit or parameters, with bands",
+    [arg("options", forecastSchemeArg)],
+    (options) => forecastScheme(options),
+  ),
+  "aq.forecastAt": fn(
+    "Drawdown forecast in lengthUnit at distances { value, unit } from one well, times { values, unit }, rate { value, unit } or schedule, from a fit, with bands",
+    [arg("options", forecastAtArg)],
+    (options) => forecastAt(options as ForecastAtOptions),
+  ),
+  "aq.schemeDrawdown": fn(
+    "Drawdown (m) at a point { x, y } (m) and times t (d) for wells [{ name, x, y, steps }] and boundaries [{ kind, distance (m), angle (deg) }], model by id",
+    [arg("options", schemeDrawdownArg)],
+    (options) => schemeDrawdownFromRecords(options),
+  ),
+  "aq.fitSeries": fn(
+    "Fit of model id to observation series in their own units; estimates in base units plus a table in reportUnits (e.g. { T: 'ft2/d' })",
+    [arg("options", fitSeriesArg)],
+    (options) => fitSeries(options),
+  ),
+  "aq.compareModels": fn(
+    "Ranking of fits to the same data by AIC with delta AIC and Akaike weights, BIC, AICc and RMSE in lengthUnit; options { names?, lengthUnit? }",
+    [arg("fits", arrayOf(comparableFitArg, 1)), arg("options", optional(recordArg({ names: optional(stringsArg()), lengthUnit: optional(stringArg()) })))],
+    (fits, options) => compareModels(fits, options),
   ),
 };
 

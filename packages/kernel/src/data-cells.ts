@@ -1,18 +1,31 @@
 /**
- * Data cells: CSV text (inline, or a file beside the document pinned by SHA-256) read into the plain table
- * a cell sees under the data cell's name: `{ name, columns, rows, csv }`, where `rows` is an array of records
- * (numbers where a field reads as a number, null for an empty field, text otherwise) and `csv` is the text
- * itself for `aq.parseObservationCsv` or other readers.
+ * Data cells: CSV text (inline, or a file beside the document pinned by SHA-256) read into the table a cell sees
+ * under the data cell's name: `{ name, columns, rows, csv, byColumn }`.
+ *
+ * The host reads the text into columns: a column whose every field reads as a number (empty fields allowed, at
+ * least one number) is a Float64Array with NaN for the empty fields; any other column is an array of field values
+ * (numbers where a field reads as a number, null for an empty field, text otherwise). Columns cross into the
+ * sandbox as bytes; the guest builds the row records of `rows` (numbers, null for empty, text) only when a cell
+ * first reads them (guest-prelude.ts), so a large record that is only handed to an importer via `csv` never
+ * becomes 100,000 objects.
  */
 import { readCsvRecords, type CsvSeparator } from "@conebook/aquifer";
 import { sha256Hex } from "@conebook/document";
 import type { DataCell } from "@conebook/document";
 
-/** The value a data cell defines. */
+/** One column of a data table: numbers (NaN where the field is empty), or field values. */
+export type DataColumn = Float64Array | (number | string | null)[];
+
+/** The value a data cell defines, in columns. */
 export interface DataTable {
   name: string;
+  /** Column names from the header line, trimmed, in file order. */
   columns: string[];
-  rows: Record<string, number | string | null>[];
+  /** One entry per column name, in the same order. */
+  values: DataColumn[];
+  /** Number of rows (lines after the header). */
+  length: number;
+  /** The CSV text itself. */
   csv: string;
 }
 
@@ -41,7 +54,16 @@ function guessSeparator(text: string): CsvSeparator {
   return ",";
 }
 
-/** Parses CSV text with a header line into a DataTable. `firstLine` is the file line of the text's first line. */
+/** A field's value: null when empty, a number when the trimmed text reads as one, else the trimmed text. */
+function fieldValue(raw: string): number | string | null {
+  if (raw === "") return null;
+  return NUMBER.test(raw) ? Number(raw) : raw;
+}
+
+/**
+ * Parses CSV text with a header line into a DataTable (see the module comment for the column forms).
+ * `firstLine` is the file line of the text's first line; errors name the data cell, the line and what to fix.
+ */
 export function parseDataTable(name: string, text: string, firstLine = 1): DataTable {
   const { records, problems } = readCsvRecords(text, guessSeparator(text), firstLine);
   if (problems.length > 0) {
@@ -51,18 +73,46 @@ export function parseDataTable(name: string, text: string, firstLine = 1): DataT
   const header = records[0];
   if (!header) throw new DataCellError(`data "${name}" is empty; give a header line with column names and then the rows`);
   const columns = header.fields.map((f) => f.trim());
-  const rows = records.slice(1).map((r) => {
-    if (r.fields.length !== columns.length) {
-      throw new DataCellError(`data "${name}", line ${r.line}: ${r.fields.length} fields but the header has ${columns.length}; give one field per column`, r.line);
+  const n = records.length - 1;
+  const raw: string[][] = columns.map(() => new Array<string>(n));
+  for (let r = 0; r < n; r++) {
+    const record = records[r + 1]!;
+    const fields = record.fields;
+    if (fields.length !== columns.length) {
+      throw new DataCellError(`data "${name}", line ${record.line}: ${fields.length} fields but the header has ${columns.length}; give one field per column`, record.line);
     }
-    const row: Record<string, number | string | null> = {};
-    columns.forEach((c, i) => {
-      const raw = r.fields[i]!.trim();
-      row[c] = raw === "" ? null : NUMBER.test(raw) ? Number(raw) : raw;
-    });
-    return row;
+    for (let c = 0; c < columns.length; c++) raw[c]![r] = fields[c]!.trim();
+  }
+  const values = raw.map((fields): DataColumn => {
+    const numbers = new Float64Array(n);
+    let sawNumber = false;
+    for (let r = 0; r < n; r++) {
+      const f = fields[r]!;
+      if (f === "") numbers[r] = NaN;
+      else if (NUMBER.test(f)) {
+        numbers[r] = Number(f);
+        sawNumber = true;
+      } else return fields.map(fieldValue);
+    }
+    return sawNumber ? numbers : fields.map(fieldValue);
   });
-  return { name, columns, rows, csv: text };
+  return { name, columns, values, length: n, csv: text };
+}
+
+/** The rows of a table as records, as a cell sees them in `rows` (numbers, null for empty fields, text). */
+export function tableRows(table: DataTable): Record<string, number | string | null>[] {
+  const rows: Record<string, number | string | null>[] = [];
+  for (let r = 0; r < table.length; r++) {
+    const row: Record<string, number | string | null> = {};
+    table.columns.forEach((c, i) => {
+      const v = table.values[i]![r]!;
+      const value = typeof v === "number" && Number.isNaN(v) ? null : v;
+      if (c === "__proto__") Object.defineProperty(row, c, { value, writable: true, enumerable: true, configurable: true });
+      else row[c] = value;
+    });
+    rows.push(row);
+  }
+  return rows;
 }
 
 /**

@@ -14,17 +14,20 @@ export const GUEST_PRELUDE_FILENAME = "conebook:prelude";
 export const GUEST_PRELUDE = String.raw`(function (host, config) {
   "use strict";
   const G = globalThis;
-  const TAG = "\u0000";
-  const F64 = TAG + "f64", NUM = TAG + "num", UNDEF = TAG + "undef";
   const stringify = JSON.stringify, parse = JSON.parse;
   const getProto = Object.getPrototypeOf, objectProto = Object.prototype, keysOf = Object.keys;
-  const isArray = Array.isArray, isView = ArrayBuffer.isView, isFinite = Number.isFinite, is = Object.is;
+  const isArray = Array.isArray, isView = ArrayBuffer.isView;
   const freeze = Object.freeze, defineProperty = Object.defineProperty;
-  const F64A = Float64Array, AB = ArrayBuffer, TypeErr = TypeError, Err = Error, Sym = Symbol;
+  const isFinite = Number.isFinite;
+  const F64A = Float64Array, TypeErr = TypeError, Err = Error, Sym = Symbol;
   const sliceBuffer = Function.prototype.call.bind(ArrayBuffer.prototype.slice);
+  const sliceF64 = Function.prototype.call.bind(Float64Array.prototype.slice);
+  const sliceArray = Function.prototype.call.bind(Array.prototype.slice);
   const push = Function.prototype.call.bind(Array.prototype.push);
+  const callFn = Function.prototype.call.bind(Function.prototype.call);
   const indirectEval = eval, construct = Reflect.construct;
   const DISPLAY = Sym("conebook.display");
+  const CYCLE_CHECK_DEPTH = 64;
 
   function describe(v) {
     if (v === null) return "null";
@@ -34,61 +37,126 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     const ctor = p && p.constructor && typeof p.constructor.name === "string" ? p.constructor.name : "object";
     return "a " + (ctor || "object");
   }
-
-  function encode(value, where) {
-    const buffers = [];
-    const json = stringify(value, function (key, v) {
-      if (typeof v === "number") {
-        if (isFinite(v)) return is(v, -0) ? { [NUM]: "-0" } : v;
-        return { [NUM]: "" + v };
-      }
-      if (v === undefined) return { [UNDEF]: 0 };
-      if (v === null || typeof v === "string" || typeof v === "boolean") return v;
-      const at = key === "" ? where : where + ", field " + stringify(key);
-      if (typeof v !== "object") {
-        throw new TypeErr(at + " is " + describe(v) + "; only numbers, strings, booleans, null, arrays, plain objects and Float64Array can be passed");
-      }
-      if (v instanceof F64A) {
-        push(buffers, sliceBuffer(v.buffer, v.byteOffset, v.byteOffset + v.byteLength));
-        return { [F64]: buffers.length - 1 };
-      }
-      if (isView(v)) throw new TypeErr(at + " is " + describe(v) + "; use a Float64Array or a plain array of numbers");
-      if (isArray(v)) return v;
-      const p = getProto(v);
-      if (p !== objectProto && p !== null) {
-        throw new TypeErr(at + " is " + describe(v) + "; only plain objects (written as { ... }) can be passed");
-      }
-      const ks = keysOf(v);
-      for (let i = 0; i < ks.length; i++) {
-        if (ks[i].charCodeAt(0) === 0) throw new TypeErr(at + " has a key starting with \\u0000, which is reserved");
-      }
-      return v;
-    });
-    return [json === undefined ? stringify({ [UNDEF]: 0 }) : json, buffers];
+  function fieldName(where, key) {
+    return key === "" ? where : where + ", field " + stringify("" + key);
+  }
+  // An own data property even for the key "__proto__" (plain assignment would set the prototype instead).
+  function setOwn(o, k, v) {
+    if (k === "__proto__") defineProperty(o, k, { value: v, writable: true, enumerable: true, configurable: true });
+    else o[k] = v;
   }
 
-  // Every tag is an object key starting with \u0000, which JSON text always writes as the escape "\u0000";
-  // text without that escape has no tags and is read without a reviver (a large data table reads several
-  // times faster that way).
-  const ESCAPED_TAG = "\\u0000", indexOf = Function.prototype.call.bind(String.prototype.indexOf);
+  // Wire text is [value, patches]: value is plain JSON with a null placeholder for every Float64Array, non-finite
+  // number, -0 and undefined, and patches lists path, code pairs saying what each placeholder stands for (see
+  // wire.ts). The walk below checks that only plain data is passed and copies it into a tree that the native
+  // JSON.stringify writes without a replacer (a replacer costs a guest function call per value). Numbers,
+  // strings, booleans and null inside arrays and objects are copied inline, without a call.
+  function encode(value, where) {
+    const buffers = [], patches = [], path = [], containers = [];
+    function patch(depth, code) {
+      const p = [];
+      for (let j = 0; j < depth; j++) p[j] = path[j];
+      patches[patches.length] = p;
+      patches[patches.length] = code;
+      return null;
+    }
+    // v sits at path[0 .. depth - 1]; key is its key in its container ("" for the value itself).
+    function walk(v, key, depth) {
+      let type = typeof v;
+      if ((type === "object" && v !== null) || type === "bigint") {
+        const toJSON = v.toJSON;
+        if (typeof toJSON === "function") {
+          v = callFn(toJSON, v, "" + key);
+          type = typeof v;
+        }
+      }
+      if (type === "number") {
+        if (v - v === 0 && (v !== 0 || 1 / v > 0)) return v;
+        return patch(depth, v !== v ? "NaN" : v === 0 ? "-0" : v > 0 ? "Infinity" : "-Infinity");
+      }
+      if (type === "string" || type === "boolean" || v === null) return v;
+      if (type === "undefined") return patch(depth, "undefined");
+      if (type !== "object") {
+        throw new TypeErr(fieldName(where, key) + " is " + describe(v) + "; only numbers, strings, booleans, null, arrays, plain objects and Float64Array can be passed");
+      }
+      const array = isArray(v);
+      if (!array) {
+        if (isView(v)) {
+          if (!(v instanceof F64A)) throw new TypeErr(fieldName(where, key) + " is " + describe(v) + "; use a Float64Array or a plain array of numbers");
+          buffers[buffers.length] = sliceBuffer(v.buffer, v.byteOffset, v.byteOffset + v.byteLength);
+          return patch(depth, buffers.length - 1);
+        }
+        const p = getProto(v);
+        if (p !== objectProto && p !== null) {
+          throw new TypeErr(fieldName(where, key) + " is " + describe(v) + "; only plain objects (written as { ... }) can be passed");
+        }
+      }
+      // A cycle always grows the path past CYCLE_CHECK_DEPTH, so shallow data (the usual case) is never scanned.
+      if (depth >= CYCLE_CHECK_DEPTH) {
+        for (let j = 0; j < depth; j++) {
+          if (containers[j] === v) throw new TypeErr(fieldName(where, key) + " contains itself; pass data without cycles");
+        }
+      }
+      containers[depth] = v;
+      let out;
+      if (array) {
+        out = [];
+        const n = v.length;
+        for (let i = 0; i < n; i++) {
+          const e = v[i], t = typeof e;
+          if (t === "number" ? e - e === 0 && (e !== 0 || 1 / e > 0) : t === "string" || t === "boolean" || e === null) out[i] = e;
+          else {
+            path[depth] = i;
+            out[i] = walk(e, i, depth + 1);
+          }
+        }
+      } else {
+        out = {};
+        const ks = keysOf(v);
+        for (let i = 0; i < ks.length; i++) {
+          const k = ks[i], e = v[k], t = typeof e;
+          let w = e;
+          if (!(t === "number" ? e - e === 0 && (e !== 0 || 1 / e > 0) : t === "string" || t === "boolean" || e === null)) {
+            path[depth] = k;
+            w = walk(e, k, depth + 1);
+          }
+          if (k === "__proto__") setOwn(out, k, w);
+          else out[k] = w;
+        }
+      }
+      return out;
+    }
+    const plain = walk(value, "", 0);
+    return [stringify([plain, patches]), buffers];
+  }
+
   function decode(wire) {
+    const both = parse(wire[0]);
+    const patches = both[1];
+    if (patches.length === 0) return both[0];
     const buffers = wire[1];
-    if (indexOf(wire[0], ESCAPED_TAG) < 0) return parse(wire[0]);
-    return parse(wire[0], function (key, v) {
-      if (v === null || typeof v !== "object" || isArray(v)) return v;
-      if (F64 in v) return new F64A(buffers[v[F64]]);
-      if (NUM in v) return +v[NUM];
-      if (UNDEF in v) return undefined;
-      return v;
-    });
+    let root = both[0];
+    for (let i = 0; i < patches.length; i += 2) {
+      const path = patches[i], code = patches[i + 1];
+      const v = typeof code === "number" ? new F64A(buffers[code]) : code === "undefined" ? undefined : +code;
+      if (path.length === 0) {
+        root = v;
+        continue;
+      }
+      let node = root;
+      for (let k = 0; k < path.length - 1; k++) node = node[path[k]];
+      setOwn(node, path[path.length - 1], v);
+    }
+    return root;
   }
 
   // The bridge: one guest function per allow-listed host function, sending its arguments as wire data.
   function bridgeFunction(guestName, hostFn) {
+    const where = guestName + ": argument list";
     const f = function () {
       const args = [];
-      for (let i = 0; i < arguments.length; i++) push(args, arguments[i]);
-      const wire = encode(args, guestName + ": argument list");
+      for (let i = 0; i < arguments.length; i++) args[i] = arguments[i];
+      const wire = encode(args, where);
       return decode(hostFn(guestName, wire[0], wire[1]));
     };
     defineProperty(f, "name", { value: guestName.slice(guestName.lastIndexOf(".") + 1) });
@@ -241,8 +309,50 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   }
   defineProperty(G, "Date", { value: SandboxDate, writable: true, configurable: true });
 
-  function defineData(name, wire) {
-    defineProperty(G, name, { value: decode(wire), writable: false, enumerable: true, configurable: false });
+  // A data cell's table: the columns arrive as Float64Array (numeric columns, NaN for an empty field) or as arrays
+  // of field values; the records of rows are built from private copies the first time a cell reads rows.
+  function buildRows(columns, values, numeric, n) {
+    const rows = [];
+    for (let i = 0; i < n; i++) {
+      const row = {};
+      for (let c = 0; c < columns.length; c++) {
+        const v = values[c][i];
+        setOwn(row, columns[c], numeric[c] && v !== v ? null : v);
+      }
+      rows[i] = row;
+    }
+    return rows;
+  }
+  function dataProperty(o, k, v) {
+    defineProperty(o, k, { value: v, writable: true, enumerable: true, configurable: true });
+  }
+  function defineTable(name, wire, csv) {
+    const data = decode(wire);
+    const columns = data.columns, values = data.values, n = data.length;
+    const numeric = [], own = [];
+    const byColumn = {};
+    for (let c = 0; c < columns.length; c++) {
+      const isNumeric = values[c] instanceof F64A;
+      push(numeric, isNumeric);
+      push(own, isNumeric ? sliceF64(values[c]) : sliceArray(values[c]));
+      setOwn(byColumn, columns[c], values[c]);
+    }
+    const table = {};
+    dataProperty(table, "name", name);
+    dataProperty(table, "columns", sliceArray(columns));
+    defineProperty(table, "rows", {
+      get: function rows() {
+        const r = buildRows(columns, own, numeric, n);
+        dataProperty(table, "rows", r);
+        return r;
+      },
+      set: function rows(r) { dataProperty(table, "rows", r); },
+      enumerable: true,
+      configurable: true,
+    });
+    dataProperty(table, "csv", csv);
+    dataProperty(table, "byColumn", byColumn);
+    defineProperty(G, name, { value: table, writable: false, enumerable: true, configurable: false });
   }
   function readGlobal(name) {
     let v;
@@ -263,5 +373,5 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   for (let i = 0; i < names.length; i++) {
     defineProperty(G, names[i], { value: api[names[i]], writable: false, enumerable: false, configurable: false });
   }
-  return freeze({ defineData: defineData, readGlobal: readGlobal, displayCompletion: displayCompletion });
+  return freeze({ defineTable: defineTable, readGlobal: readGlobal, displayCompletion: displayCompletion });
 })`;

@@ -238,7 +238,7 @@ async function runCell(
       }
       const text = await dataCellText(cell, readFile);
       const table = parseDataTable(cell.name, text, cell.file ? 1 : cell.sourceStart.line);
-      const outcome = sandbox.defineData(cell.name, table, limits.timeLimitMs);
+      const outcome = sandbox.defineTable(table, limits.timeLimitMs);
       if (!outcome.ok) return guestErrorOutput(cell, outcome.error, limits);
       return undefined;
     }

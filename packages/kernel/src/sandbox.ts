@@ -12,6 +12,7 @@
  */
 import type { QuickJSContext, QuickJSHandle, QuickJSRuntime, QuickJSWASMModule } from "quickjs-emscripten-core";
 import { BRIDGE_API } from "./bridge-api.js";
+import type { DataTable } from "./data-cells.js";
 import { GUEST_PRELUDE, GUEST_PRELUDE_FILENAME } from "./guest-prelude.js";
 import { ArgumentError } from "./validators.js";
 import { decodeWireValue, encodeHostValue, type WireValue } from "./wire.js";
@@ -110,12 +111,12 @@ export class Sandbox {
     emit.dispose();
     control.dispose();
     const names = Object.keys(BRIDGE_API);
-    const configWire = encodeHostValue({
+    const configJson = JSON.stringify({
       seed,
       aquifer: names.filter((n) => n.startsWith("aq.")),
       charts: names.filter((n) => n.startsWith("charts.")),
     });
-    const config = ctx.unwrapResult(ctx.evalCode(`(${configWire.json})`, GUEST_PRELUDE_FILENAME));
+    const config = ctx.unwrapResult(ctx.evalCode(`(${configJson})`, GUEST_PRELUDE_FILENAME));
     const result = ctx.callFunction(preludeFn, ctx.undefined, host, config);
     preludeFn.dispose();
     host.dispose();
@@ -123,6 +124,7 @@ export class Sandbox {
     return ctx.unwrapResult(result);
   }
 
+  /** Reads wire data the guest sent; its buffers are copied out of QuickJS memory. */
   private readWire(jsonH: QuickJSHandle, buffersH: QuickJSHandle): WireValue {
     const ctx = this.context;
     const json = ctx.getString(jsonH);
@@ -132,10 +134,13 @@ export class Sandbox {
     lengthH.dispose();
     for (let i = 0; i < n; i++) {
       const h = ctx.getProp(buffersH, i);
-      const bytes = ctx.getArrayBuffer(h);
-      buffers.push(bytes.value.slice().buffer as ArrayBuffer);
-      bytes.dispose();
-      h.dispose();
+      try {
+        const bytes = ctx.getArrayBuffer(h);
+        buffers.push(bytes.value.slice().buffer as ArrayBuffer);
+        bytes.dispose();
+      } finally {
+        h.dispose();
+      }
     }
     return { json, buffers };
   }
@@ -143,7 +148,8 @@ export class Sandbox {
   /** Builds the guest array [json, [buffer...]] that the prelude's `decode` reads. */
   private newWire(value: unknown): QuickJSHandle {
     const ctx = this.context;
-    const wire = encodeHostValue(value);
+    // The bytes are copied into QuickJS memory at once, so the wire may share the host arrays' buffers.
+    const wire = encodeHostValue(value, { shareBuffers: true });
     const out = ctx.newArray();
     const json = ctx.newString(wire.json);
     ctx.setProp(out, 0, json);
@@ -269,13 +275,19 @@ export class Sandbox {
     });
   }
 
-  /** Defines a read-only global `name` holding `value` (plain data). */
-  defineData(name: string, value: unknown, timeLimitMs: number): Outcome<unknown> {
-    const nameH = this.context.newString(name);
-    const wire = this.newWire(value);
-    const outcome = this.callInternal("defineData", [nameH, wire], timeLimitMs);
+  /**
+   * Defines the read-only global `table.name` holding a data cell's table (`{ name, columns, rows, csv, byColumn }`,
+   * see data-cells.ts). Columns cross as bytes (Float64Array) or JSON; the CSV text crosses as one string.
+   */
+  defineTable(table: DataTable, timeLimitMs: number): Outcome<unknown> {
+    const ctx = this.context;
+    const nameH = ctx.newString(table.name);
+    const wire = this.newWire({ columns: table.columns, values: table.values, length: table.length });
+    const csvH = ctx.newString(table.csv);
+    const outcome = this.callInternal("defineTable", [nameH, wire, csvH], timeLimitMs);
     nameH.dispose();
     wire.dispose();
+    csvH.dispose();
     return outcome;
   }
 

@@ -4,20 +4,20 @@
  * Only this text and these byte buffers cross the boundary, so no host object, function or prototype can ever
  * reach a cell, and nothing of the guest reaches the host except data the host then validates.
  *
- * JSON cannot carry everything plain numeric data needs, so four tagged one-key objects stand in for it:
- * - `{"\u0000f64": i}`: a Float64Array whose bytes are buffers[i] (the fast path: about 1 ms for 1e6 doubles,
- *   where JSON would take hundreds of milliseconds);
- * - `{"\u0000num": "NaN" | "Infinity" | "-Infinity" | "-0"}`: numbers JSON cannot write;
- * - `{"\u0000undef": 0}`: undefined (so an omitted optional argument keeps its position).
- * Object keys beginning with "\u0000" are refused, so a tag can never be forged by user data.
+ * The text is `[value, patches]`. `value` is plain JSON in which every value JSON cannot carry is a `null`
+ * placeholder; `patches` is a flat list `path1, code1, path2, code2, ...` saying what each placeholder stands for.
+ * A path is the list of keys (strings) and array indices (numbers) from the value to the placeholder (`[]` is the
+ * value itself); a code is
+ * - a number i: a Float64Array whose bytes are buffers[i] (the fast path: a copy of bytes, about 1 ms for 1e6
+ *   doubles, where JSON would take hundreds of milliseconds);
+ * - "NaN", "Infinity", "-Infinity" or "-0": the number JSON cannot write;
+ * - "undefined": undefined (so an omitted optional argument keeps its position).
+ * Both sides read the text with a plain `JSON.parse` (no reviver, which in QuickJS costs a function call per
+ * value) and then apply the few patches, so the cost of a crossing is the native JSON cost plus the bytes.
+ * User data cannot forge a patch: patches live outside the value, and the decoder accepts only a patch that
+ * replaces a `null` placeholder that exists in the value, with each buffer used once.
  * The guest side of the same format is in guest-prelude.ts.
  */
-
-/** The tag prefix; no key of user data may start with it. */
-export const TAG = "\u0000";
-const F64 = `${TAG}f64`;
-const NUM = `${TAG}num`;
-const UNDEF = `${TAG}undef`;
 
 /** A value in wire form. */
 export interface WireValue {
@@ -30,35 +30,126 @@ export class WireEncodeError extends Error {
   override readonly name = "WireEncodeError";
 }
 
+type PathKey = string | number;
+
+/** Left out of an object (and written as null in an array), as JSON.stringify does with functions and symbols. */
+const OMIT = Symbol("omit");
+
+/** True for numbers JSON writes as they are: finite and not -0. */
+function isPlainNumber(v: number): boolean {
+  return v - v === 0 && (v !== 0 || 1 / v > 0);
+}
+
+/** True for values copied as they are: strings, booleans, null and plain numbers. */
+function isPlainLeaf(v: unknown): boolean {
+  const t = typeof v;
+  return t === "number" ? isPlainNumber(v as number) : t === "string" || t === "boolean" || v === null;
+}
+
+/** Options of encodeHostValue. */
+export interface EncodeOptions {
+  /**
+   * Put a Float64Array's own ArrayBuffer in `buffers` (no copy) when the array spans all of it. Only for a caller
+   * that copies the bytes before anything can change them, as the sandbox does when it moves them into QuickJS.
+   */
+  shareBuffers?: boolean;
+}
+
+class HostEncoder {
+  readonly buffers: ArrayBuffer[] = [];
+  readonly patches: unknown[] = [];
+  private readonly path: PathKey[] = [];
+  private readonly containers: object[] = [];
+  constructor(private readonly share: boolean) {}
+
+  private patch(depth: number, code: string | number): null {
+    this.patches.push(this.path.slice(0, depth), code);
+    return null;
+  }
+
+  private buffer(v: Float64Array, depth: number): null {
+    const whole = this.share && v.byteOffset === 0 && v.byteLength === v.buffer.byteLength && v.buffer instanceof ArrayBuffer;
+    this.buffers.push(whole ? (v.buffer as ArrayBuffer) : (v.buffer.slice(v.byteOffset, v.byteOffset + v.byteLength) as ArrayBuffer));
+    return this.patch(depth, this.buffers.length - 1);
+  }
+
+  /** The JSON-ready copy of v, which sits at path[0 .. depth - 1] under `key`. */
+  walk(value: unknown, key: string, depth: number): unknown {
+    let v = value;
+    if ((typeof v === "object" && v !== null) || typeof v === "bigint") {
+      const toJSON = (v as { toJSON?: unknown }).toJSON;
+      if (typeof toJSON === "function") v = toJSON.call(v, key) as unknown;
+    }
+    switch (typeof v) {
+      case "number":
+        return isPlainNumber(v) ? v : this.patch(depth, Object.is(v, -0) ? "-0" : String(v));
+      case "string":
+      case "boolean":
+        return v;
+      case "undefined":
+        return this.patch(depth, "undefined");
+      case "bigint":
+        return this.walk(Number(v), key, depth);
+      case "function":
+      case "symbol":
+        return OMIT;
+    }
+    if (v === null) return null;
+    if (v instanceof Float64Array) return this.buffer(v, depth);
+    if (ArrayBuffer.isView(v) && !(v instanceof DataView)) return this.buffer(Float64Array.from(v as unknown as ArrayLike<number>), depth);
+    const object = v as object;
+    for (let j = 0; j < depth; j++) {
+      if (this.containers[j] === object) throw new WireEncodeError("cannot encode a circular structure for the sandbox");
+    }
+    this.containers[depth] = object;
+    const path = this.path;
+    let out: unknown;
+    if (Array.isArray(object)) {
+      const list: unknown[] = new Array(object.length);
+      for (let i = 0; i < object.length; i++) {
+        const e: unknown = object[i];
+        if (isPlainLeaf(e)) list[i] = e;
+        else {
+          path[depth] = i;
+          const w = this.walk(e, String(i), depth + 1);
+          list[i] = w === OMIT ? null : w;
+        }
+      }
+      out = list;
+    } else {
+      const record: Record<string, unknown> = {};
+      for (const k of Object.keys(object)) {
+        const e = (object as Record<string, unknown>)[k];
+        let w: unknown = e;
+        if (!isPlainLeaf(e)) {
+          path[depth] = k;
+          w = this.walk(e, k, depth + 1);
+          if (w === OMIT) continue;
+        }
+        if (k === "__proto__") Object.defineProperty(record, k, { value: w, writable: true, enumerable: true, configurable: true });
+        else record[k] = w;
+      }
+      out = record;
+    }
+    this.containers.length = depth;
+    return out;
+  }
+}
+
 /**
  * Encodes a host value. Plain objects, arrays, numbers (including NaN, ±Infinity, -0), strings, booleans, null,
  * undefined and Float64Array are kept; functions and symbols in object properties are left out (a result's
- * methods never cross); other typed arrays are converted to Float64Array; class instances are written as
- * their own enumerable properties, like JSON does.
+ * methods never cross) and become null in arrays; other typed arrays are converted to Float64Array; bigints
+ * become numbers; `toJSON` is honoured once per value (a Date becomes its ISO text); class instances are
+ * written as their own enumerable properties, like JSON does. A circular structure is a WireEncodeError.
+ * Cost: one walk over the value plus a native JSON.stringify; Float64Array bytes are copied once (not at all
+ * with `shareBuffers`).
  */
-export function encodeHostValue(value: unknown): WireValue {
-  const buffers: ArrayBuffer[] = [];
-  const json = JSON.stringify(value, function (this: unknown, _key: string, v: unknown): unknown {
-    if (typeof v === "number") {
-      if (Number.isFinite(v)) return Object.is(v, -0) ? { [NUM]: "-0" } : v;
-      return { [NUM]: String(v) };
-    }
-    if (v === undefined) return { [UNDEF]: 0 };
-    if (typeof v === "function" || typeof v === "symbol") return undefined;
-    if (typeof v === "bigint") return Number(v);
-    if (v instanceof Float64Array) {
-      buffers.push(v.buffer.slice(v.byteOffset, v.byteOffset + v.byteLength) as ArrayBuffer);
-      return { [F64]: buffers.length - 1 };
-    }
-    if (ArrayBuffer.isView(v) && !(v instanceof DataView)) {
-      const copy = Float64Array.from(v as unknown as ArrayLike<number>);
-      buffers.push(copy.buffer);
-      return { [F64]: buffers.length - 1 };
-    }
-    return v;
-  });
-  if (json === undefined) throw new WireEncodeError(`cannot encode a ${typeof value} for the sandbox`);
-  return { json, buffers };
+export function encodeHostValue(value: unknown, options: EncodeOptions = {}): WireValue {
+  const encoder = new HostEncoder(options.shareBuffers === true);
+  const plain = encoder.walk(value, "", 0);
+  if (plain === OMIT) throw new WireEncodeError(`cannot encode a ${typeof value} for the sandbox`);
+  return { json: JSON.stringify([plain, encoder.patches]), buffers: encoder.buffers };
 }
 
 /** Thrown when wire text from the guest does not follow the format; the message says what was found. */
@@ -66,34 +157,73 @@ export class WireDecodeError extends Error {
   override readonly name = "WireDecodeError";
 }
 
+function patchValue(code: unknown, wire: WireValue, used: Uint8Array): unknown {
+  if (typeof code === "number") {
+    const buffer = Number.isInteger(code) && code >= 0 ? wire.buffers[code] : undefined;
+    if (buffer === undefined || buffer.byteLength % 8 !== 0) throw new WireDecodeError(`Float64Array patch ${String(code)} has no buffer`);
+    if (used[code]) throw new WireDecodeError(`buffer ${code} is used by more than one Float64Array`);
+    used[code] = 1;
+    return new Float64Array(buffer);
+  }
+  switch (code) {
+    case "NaN":
+      return NaN;
+    case "Infinity":
+      return Infinity;
+    case "-Infinity":
+      return -Infinity;
+    case "-0":
+      return -0;
+    case "undefined":
+      return undefined;
+  }
+  throw new WireDecodeError(`patch code ${JSON.stringify(code)} is not a buffer index, NaN, Infinity, -Infinity, -0 or undefined`);
+}
+
+/** Whether `node[key]` is an own property of a JSON array or object (never a Float64Array a patch put there). */
+function hasSlot(node: unknown, key: unknown): node is Record<PathKey, unknown> {
+  if (node === null || typeof node !== "object" || node instanceof Float64Array) return false;
+  if (Array.isArray(node)) return typeof key === "number" && Number.isInteger(key) && key >= 0 && key < node.length;
+  return typeof key === "string" && Object.hasOwn(node, key);
+}
+
 /**
- * Decodes wire text (usually written by the guest) into host data: plain objects with a null prototype are not
- * used, objects are ordinary `{}` records, arrays are arrays, Float64Array tags become Float64Array views of
- * copies of the buffers. A tag naming a missing buffer, or an unknown tag, is a WireDecodeError.
+ * Decodes wire text (usually written by the guest) into host data: objects are ordinary `{}` records, arrays are
+ * arrays, Float64Array patches become Float64Array views of the given buffers (one buffer each). Text that is
+ * not `[value, patches]`, or a patch that does not replace a null placeholder of the value, is a WireDecodeError.
  */
 export function decodeWireValue(wire: WireValue): unknown {
-  return JSON.parse(wire.json, (_key, v: unknown) => {
-    if (v === null || typeof v !== "object" || Array.isArray(v)) return v;
-    const keys = Object.keys(v);
-    if (keys.length !== 1 || !keys[0]!.startsWith(TAG)) {
-      for (const k of keys) if (k.startsWith(TAG)) throw new WireDecodeError(`object key ${JSON.stringify(k)} is reserved`);
-      return v;
+  let parsed: unknown;
+  try {
+    parsed = JSON.parse(wire.json);
+  } catch (e) {
+    throw new WireDecodeError(`wire text is not JSON: ${e instanceof Error ? e.message : String(e)}`);
+  }
+  if (!Array.isArray(parsed) || parsed.length !== 2 || !Array.isArray(parsed[1]) || parsed[1].length % 2 !== 0) {
+    throw new WireDecodeError("wire text is not [value, patches] with patches as path, code pairs");
+  }
+  let root: unknown = parsed[0];
+  const patches = parsed[1] as unknown[];
+  const used = new Uint8Array(wire.buffers.length);
+  for (let i = 0; i < patches.length; i += 2) {
+    const path = patches[i];
+    if (!Array.isArray(path)) throw new WireDecodeError(`patch ${i / 2} has no path`);
+    const value = patchValue(patches[i + 1], wire, used);
+    if (path.length === 0) {
+      if (root !== null) throw new WireDecodeError("a patch of the whole value needs a null placeholder");
+      root = value;
+      continue;
     }
-    const tag = keys[0]!;
-    const payload = (v as Record<string, unknown>)[tag];
-    if (tag === F64) {
-      const buffer = typeof payload === "number" ? wire.buffers[payload] : undefined;
-      if (buffer === undefined || buffer.byteLength % 8 !== 0) throw new WireDecodeError(`Float64Array tag ${String(payload)} has no buffer`);
-      return new Float64Array(buffer);
+    let node: unknown = root;
+    for (let k = 0; k < path.length - 1; k++) {
+      if (!hasSlot(node, path[k])) throw new WireDecodeError(`patch path ${JSON.stringify(path)} leaves the value`);
+      node = node[path[k] as PathKey];
     }
-    if (tag === NUM) {
-      if (payload === "NaN") return NaN;
-      if (payload === "Infinity") return Infinity;
-      if (payload === "-Infinity") return -Infinity;
-      if (payload === "-0") return -0;
-      throw new WireDecodeError(`number tag ${JSON.stringify(payload)} is not NaN, Infinity, -Infinity or -0`);
+    const last = path[path.length - 1] as unknown;
+    if (!hasSlot(node, last) || node[last as PathKey] !== null) {
+      throw new WireDecodeError(`patch path ${JSON.stringify(path)} does not name a null placeholder`);
     }
-    if (tag === UNDEF) return undefined;
-    throw new WireDecodeError(`unknown tag ${JSON.stringify(tag)}`);
-  });
+    node[last as PathKey] = value;
+  }
+  return root;
 }
