@@ -112,3 +112,12 @@ export function printTable(title: string, rows: readonly Measurement[]): void {
   for (const l of lines) console.log(row(l));
   for (const m of rows) if (m.note) console.log(`  note (${m.name}): ${m.note}`);
 }
+
+/** n points spaced evenly in ln between lo and hi (both > 0), ends included. */
+export function logspace(lo: number, hi: number, n: number): Float64Array {
+  const out = new Float64Array(n);
+  const a = Math.log(lo);
+  const step = (Math.log(hi) - a) / (n - 1);
+  for (let i = 0; i < n; i++) out[i] = Math.exp(a + i * step);
+  return out;
+}

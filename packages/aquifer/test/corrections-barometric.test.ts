@@ -8,18 +8,8 @@ import {
 } from "../src/corrections/index.js";
 import { createObservationSeries } from "../src/data/index.js";
 import { diagnosticsFixture, relDiff } from "./diagnostics-fixture.js";
+import { uniformGenerator } from "../../../tests/support/seeded-noise.js";
 
-/** Seeded uniform generator on [0, 1) (mulberry32, a public-domain 32-bit generator). */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Standard normal deviates by the Box-Muller transform. */
 function normals(uniform: () => number): () => number {
@@ -31,7 +21,7 @@ const PA_PER_M_WATER = 9806.65;
 
 /** Invented record: hourly readings, pressure a random walk in hPa, depth to water with BE, a trend and noise. */
 function syntheticRecord(seed: number, be: number, n: number, noiseM: number) {
-  const z = normals(mulberry32(seed));
+  const z = normals(uniformGenerator(seed));
   const pressures: number[] = [];
   const depths: number[] = [];
   let p = 1012;

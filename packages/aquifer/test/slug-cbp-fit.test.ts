@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { cbpNormalizedHead, cooperBredehoeftPapadopulosFit } from "../src/slug/index.js";
-import { normalGenerator } from "./steptest-seeded-noise.js";
+import { normalGenerator } from "../../../tests/support/seeded-noise.js";
 
 // Invented well in a confined aquifer: casing radius 5 cm, screen radius 5 cm (alpha = S), T = 5 m2/d,
 // S = 1e-4, aquifer 10 m thick; 24 readings log-spaced from 2 s to 1 h (beta = T t / rc^2 from 0.05 to 83).

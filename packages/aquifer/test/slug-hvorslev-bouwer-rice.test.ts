@@ -7,7 +7,7 @@ import {
   hvorslevSlugTest,
   SlugTestInputError,
 } from "../src/slug/index.js";
-import { normalGenerator } from "./steptest-seeded-noise.js";
+import { normalGenerator } from "../../../tests/support/seeded-noise.js";
 
 /** An invented record H = H0 exp(-t/T0) (t in min, H in m) at log-spaced times. */
 function exponentialRecord(H0: number, T0min: number, count = 25, noise?: () => number) {

@@ -8,7 +8,7 @@ import {
   waltonWellCondition,
   StepTestInputError,
 } from "../src/steptest/index.js";
-import { normalGenerator } from "./steptest-seeded-noise.js";
+import { normalGenerator } from "../../../tests/support/seeded-noise.js";
 
 // Synthetic wells (invented): B in d/m2, C in d2/m5 (Jacob) or d^n/m^(3n-1) (Rorabaugh), Q in m3/d, s in m.
 const B = 1.2e-3;

@@ -11,6 +11,7 @@ import { parseDocument, type CellOutput, type ConebookDocument } from "@conebook
 import { createKernel, type Kernel, type RunResult } from "@conebook/kernel";
 import { fileReaderFor } from "@conebook/kernel/node";
 import { bestOfAsync, type Measurement } from "../harness.js";
+import { uniformGenerator } from "../../support/seeded-noise.js";
 
 interface FixtureWell { name: string; r: number; Q: number; t: number[]; s: number[] }
 interface FixtureDataset { id: string; start: { T: number; S: number }; wells: FixtureWell[] }
@@ -129,17 +130,6 @@ async function fitThroughBridge(kernel: Kernel): Promise<Measurement> {
   };
 }
 
-/** mulberry32: a small seeded 32-bit generator (public-domain algorithm by Tommy Ettinger), uniform in [0, 1). */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /**
  * An invented logger record: 100,000 depth-to-water readings at a fixed interval over 2 days below a static
@@ -147,7 +137,7 @@ function mulberry32(seed: number): () => number {
  * (Box-Muller on mulberry32, seed 7). Elapsed time in min.
  */
 function loggerCsv(rows: number): string {
-  const random = mulberry32(7);
+  const random = uniformGenerator(7);
   const lines = ["elapsed_min,depth_to_water_m"];
   const dtMin = 2880 / rows;
   for (let i = 1; i <= rows; i++) {

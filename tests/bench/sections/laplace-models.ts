@@ -20,7 +20,8 @@ import {
   NEUMAN_STEHFEST_TERMS,
   neumanModel,
 } from "../../../packages/aquifer/src/models/neuman.js";
-import { bestOf, type Measurement } from "../harness.js";
+import { bestOf, logspace, type Measurement } from "../harness.js";
+import { normalGenerator } from "../../support/seeded-noise.js";
 
 type PeerOutput = Record<string, Record<string, unknown>>;
 
@@ -55,31 +56,7 @@ function runJsonPeer(script: string, input: unknown): PeerOutput | null {
   }
 }
 
-function logspace(lo: number, hi: number, n: number): Float64Array {
-  const out = new Float64Array(n);
-  const a = Math.log(lo);
-  const step = (Math.log(hi) - a) / (n - 1);
-  for (let i = 0; i < n; i++) out[i] = Math.exp(a + i * step);
-  return out;
-}
 
-/** Mulberry32: a small seeded 32-bit generator of uniform numbers in [0, 1) (public-domain algorithm). */
-function seededUniform(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let z = state;
-    z = Math.imul(z ^ (z >>> 15), z | 1);
-    z ^= z + Math.imul(z ^ (z >>> 7), z | 61);
-    return ((z ^ (z >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-/** Standard normal numbers by the Box-Muller transform of a seeded uniform generator. */
-function seededNormal(seed: number): () => number {
-  const uniform = seededUniform(seed);
-  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
-}
 
 interface Agreement {
   /** |sum here - sum peer| / |sum peer|. */
@@ -169,7 +146,7 @@ export function laplaceModelBenchmarks(): Measurement[] {
   const neuman = neumanModel(NEUMAN.b);
   const fitModelB = neumanModel(NEUMAN.b);
 
-  const normal = seededNormal(NEUMAN_FIT.seed);
+  const normal = normalGenerator(NEUMAN_FIT.seed);
   const fitWells = NEUMAN_FIT.distances.map((r, k) => {
     const clean = fitModelB.drawdown(NEUMAN.parameters, { r, Q: NEUMAN.Q }, NEUMAN_FIT.t);
     return {

@@ -4,18 +4,11 @@
  */
 import { readFileSync } from "node:fs";
 import { expint1, fitModel, hantushW, theisModel } from "@conebook/aquifer";
-import { bestOf, runPeer, type Measurement } from "../harness.js";
+import { bestOf, logspace, runPeer, type Measurement } from "../harness.js";
 
 interface FixtureWell { name: string; r: number; Q: number; t: number[]; s: number[] }
 interface FixtureDataset { id: string; start: { T: number; S: number }; wells: FixtureWell[] }
 
-function logspace(lo: number, hi: number, n: number): Float64Array {
-  const out = new Float64Array(n);
-  const a = Math.log(lo);
-  const step = (Math.log(hi) - a) / (n - 1);
-  for (let i = 0; i < n; i++) out[i] = Math.exp(a + i * step);
-  return out;
-}
 
 function expectClose(label: string, value: number, reference: number, rel: number): void {
   if (!(Math.abs(value - reference) <= rel * Math.abs(reference))) {

@@ -1,4 +1,4 @@
-/** Seeded pseudo-random numbers for the noise studies of the step and slug tests. Test helper, not a test. */
+/** Seeded pseudo-random numbers for noise studies in tests and benchmarks (invented noise, never a reference). */
 
 /** mulberry32: a small 32-bit generator, deterministic for a given seed; uniform in [0, 1). */
 export function uniformGenerator(seed: number): () => number {
