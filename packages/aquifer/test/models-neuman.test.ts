@@ -1,7 +1,9 @@
 import { readFileSync } from "node:fs";
 import { describe, it, expect } from "vitest";
 import { neumanDimensionless, neumanModel, neumanTypeCurves } from "../src/models/neuman.js";
-import { neumanRoot, neumanTransform, newNeumanTransform } from "../src/models/neuman-laplace.js";
+import { neumanNextRoot, neumanRoot, neumanTransform, newNeumanTransform } from "../src/models/neuman-laplace.js";
+import { neumanTransformBySeries } from "../src/models/neuman-laplace-reference.js";
+import { stehfestWithDerivatives } from "../src/models/neuman-stehfest.js";
 import { besselK0, expint1 } from "../src/special/index.js";
 import { fitModel } from "../src/fit/index.js";
 
@@ -21,6 +23,63 @@ describe("the Neuman Laplace-domain series", () => {
         expect(Math.abs(e - n * Math.PI - Math.atan(c / e)), `n = ${n}, c = ${c}`).toBeLessThan(4e-16 * e);
       }
     }
+  });
+
+  it("steps from root to root (one arctangent and one Newton step) to the residual of the bracketed solver", () => {
+    for (const c of [1e-8, 0.03, 0.3, 2, 7, 300, 1e6]) {
+      let e = neumanRoot(0, c, 0.5);
+      for (let n = 1; n <= 60; n++) {
+        e = neumanNextRoot(n, c, e);
+        expect(e).toBeGreaterThan(n * Math.PI);
+        expect(e).toBeLessThan(n * Math.PI + Math.PI / 2);
+        expect(Math.abs(e - n * Math.PI - Math.atan(c / e)), `n = ${n}, c = ${c}`).toBeLessThan(4e-16 * e);
+        expect(Math.abs(e / neumanRoot(n, c, e) - 1)).toBeLessThan(4e-16);
+      }
+    }
+  });
+
+  it("gives the same transform, derivatives and s_D as the direct series (t_s 1e-2..1e7, beta 1e-3..10)", () => {
+    // Reference: neumanTransformBySeries, every root solved to a verified Newton step (the evaluation this
+    // project used before the fast root steps); both at the model's series tolerance.
+    const fast = newNeumanTransform();
+    const direct = newNeumanTransform();
+    const toValues = (f: typeof neumanTransform, sigma: number, beta: number, record: typeof fast) =>
+      (p: number, derivatives: boolean, values: Float64Array) => {
+        f(p, sigma, beta, 1e-10, derivatives, record);
+        values[0] = record.value;
+        values[1] = record.dp;
+        values[2] = record.dSigma;
+        values[3] = record.dBeta;
+      };
+    const scratch = new Float64Array(4);
+    const a = new Float64Array(4);
+    const b = new Float64Array(4);
+    let worstTransform = 0;
+    let worstDrawdown = 0;
+    for (const ts of [1e-2, 0.3, 3, 30, 1e3, 1e5, 1e7]) {
+      for (const sigma of [1e-6, 1e-2, 0.3, 1]) {
+        for (const beta of [1e-3, 0.01, 0.1, 1, 10]) {
+          for (let k = 1; k <= 12; k++) {
+            const p = (k * Math.LN2) / ts;
+            neumanTransform(p, sigma, beta, 1e-10, false, fast);
+            neumanTransformBySeries(p, sigma, beta, 1e-10, false, direct);
+            expect(fast.terms).toBe(direct.terms);
+            worstTransform = Math.max(worstTransform, Math.abs(fast.value / direct.value - 1));
+          }
+          stehfestWithDerivatives(toValues(neumanTransform, sigma, beta, fast), ts, 12, true, scratch, a);
+          stehfestWithDerivatives(toValues(neumanTransformBySeries, sigma, beta, direct), ts, 12, true, scratch, b);
+          expect(Math.abs(a[0]! / b[0]! - 1), `s_D at t_s ${ts}, sigma ${sigma}, beta ${beta}`).toBeLessThan(1e-9);
+          worstDrawdown = Math.max(worstDrawdown, Math.abs(a[0]! / b[0]! - 1));
+          // Sensitivities: relative to the largest of t_s ds/dt_s, sigma ds/dsigma, beta ds/dbeta (one may cross 0).
+          const scale = Math.max(Math.abs(b[1]!), Math.abs(sigma * b[2]!), Math.abs(beta * b[3]!));
+          expect(Math.abs(a[1]! - b[1]!) / scale).toBeLessThan(1e-9);
+          expect(Math.abs(sigma * (a[2]! - b[2]!)) / scale).toBeLessThan(1e-9);
+          expect(Math.abs(beta * (a[3]! - b[3]!)) / scale).toBeLessThan(1e-9);
+        }
+      }
+    }
+    expect(worstTransform).toBeLessThan(1e-13);
+    expect(worstDrawdown).toBeLessThan(1e-9);
   });
 
   it("matches the root-free Hankel-space evaluation of mpmath to 1e-9 relative (checks the series itself)", () => {
