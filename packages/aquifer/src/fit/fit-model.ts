@@ -15,6 +15,11 @@ import { studentTQuantile } from "./student-t.js";
 /** How the Jacobian is obtained: the model's analytic one, or finite differences in the fitting space. */
 export type JacobianMethod = "analytic" | "forward" | "central";
 
+/**
+ * Input of fitModel: the drawdown model, the observation wells (t in d, s in m, r in m, Q in m3/d) and optional
+ * start values, fixed values and bounds by parameter name (base units of each parameter, e.g. T m2/d, S
+ * dimensionless), the Jacobian method and the stopping tolerances (dimensionless).
+ */
 export interface FitOptions {
   readonly model: DrawdownModel;
   /** One or several wells; all share the model parameters. */
@@ -39,6 +44,10 @@ export interface FitOptions {
   readonly correlationWarning?: number;
 }
 
+/**
+ * One model parameter after a fit: its estimate, standard error and 95 % interval in the parameter's base unit
+ * (named by `unit`, e.g. "m2/d" for transmissivity), whether it was fixed, and how it was fitted.
+ */
 export interface FitParameter {
   readonly name: string;
   readonly label: string;
@@ -59,6 +68,10 @@ export interface FitParameter {
   readonly atBound: "lower" | "upper" | null;
 }
 
+/**
+ * The used points of one observation well after a fit: times t (d since pumping started), observed and fitted
+ * drawdown (m), and their difference (m); index gives each point's position in the caller's arrays.
+ */
 export interface WellResiduals {
   readonly name: string;
   /** Indices of the used points in the caller's arrays. */
@@ -70,6 +83,11 @@ export interface WellResiduals {
   readonly residual: Float64Array;
 }
 
+/**
+ * Outcome of fitModel: parameter estimates with uncertainties (base units), covariance and correlation of the
+ * free parameters, goodness of fit (SSR in m^2 times the weight unit, RMSE and residual standard error in m,
+ * AIC/BIC/AICc dimensionless), residuals per well, iteration counts, convergence reason and warnings.
+ */
 export interface FitResult {
   readonly modelId: string;
   readonly parameters: FitParameter[];

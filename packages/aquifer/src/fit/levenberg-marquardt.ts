@@ -50,6 +50,10 @@ export interface LeastSquaresProblem {
   jacobian?(x: Float64Array, out: Float64Array): void;
 }
 
+/**
+ * Settings of levenbergMarquardt: box bounds on the unknowns (fitting-space units), stopping tolerances and
+ * trust-radius factor (dimensionless), evaluation budget and finite-difference scheme.
+ */
 export interface LevenbergMarquardtOptions {
   /** Lower bounds per unknown (may be -Infinity). */
   readonly lower?: Float64Array;
@@ -75,6 +79,10 @@ export interface LevenbergMarquardtOptions {
   readonly initialResiduals?: Float64Array;
 }
 
+/**
+ * Outcome of levenbergMarquardt: the solution x (fitting-space units), the residuals, their sum of squares and
+ * the Jacobian there (units of the problem's residuals), why it stopped, and counts of steps and evaluations.
+ */
 export interface LevenbergMarquardtResult {
   /** Solution in the fitting space. */
   readonly x: Float64Array;

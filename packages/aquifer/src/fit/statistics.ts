@@ -10,6 +10,11 @@
 
 import { householderQr, jacobiSvd } from "./linalg.js";
 
+/**
+ * Linearised uncertainty of a least-squares optimum in the fitting space (ln p for positive parameters, p
+ * otherwise): covariance, singular values of the weighted-residual Jacobian, its numerical rank and the
+ * unconstrained directions. Units are those of the fitting-space coordinates, not base units.
+ */
 export interface FitSpaceCovariance {
   /** p-by-p covariance in the fitting space (row-major nested arrays); NaN where not identifiable. */
   readonly covariance: number[][];

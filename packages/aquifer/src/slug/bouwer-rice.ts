@@ -26,6 +26,10 @@ import { conductivityFromLine, lineWarnings, type SlugConductivityResult, type S
 import { fitRecoveryLine } from "./log-linear-recovery.js";
 import { lengthInMetres, normalizeSlugRecord, type SlugTestRecord } from "./slug-data.js";
 
+/**
+ * Well geometry for bouwerRiceSlugTest: rc, rw, Le, Lw and D as lengths with their units (any length unit,
+ * converted to m); see the module note for what each length means.
+ */
 export interface BouwerRiceGeometry {
   /** Radius of the casing where the water level moves, rc. */
   readonly casingRadius: ValueWithUnit;

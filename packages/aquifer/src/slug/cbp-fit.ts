@@ -24,6 +24,10 @@ import { cbpNormalizedHead } from "./cooper-bredehoeft-papadopulos.js";
 import { SlugTestInputError } from "./errors.js";
 import { lengthInMetres, normalizeSlugRecord, type SlugFitRange, type SlugTestRecord } from "./slug-data.js";
 
+/**
+ * Well geometry for cooperBredehoeftPapadopulosFit: rc, rw and optionally the aquifer thickness b, as lengths
+ * with their units (any length unit, converted to m).
+ */
 export interface CbpGeometry {
   /** Radius of the casing where the water level moves, rc. */
   readonly casingRadius: ValueWithUnit;
@@ -33,6 +37,10 @@ export interface CbpGeometry {
   readonly aquiferThickness?: ValueWithUnit;
 }
 
+/**
+ * Settings of cooperBredehoeftPapadopulosFit: the part of the record fitted (times in the record's time unit,
+ * heads as H/H0), start values, a fixed S, and bounds; T in m2/d, S dimensionless.
+ */
 export interface CbpFitOptions {
   readonly range?: SlugFitRange;
   /** Starting values (base units); missing ones come from the alpha grid match. */
@@ -44,6 +52,10 @@ export interface CbpFitOptions {
   readonly boundsS?: readonly [number, number];
 }
 
+/**
+ * One parameter p of cooperBredehoeftPapadopulosFit: T (m2/d) or S (dimensionless), with its standard error
+ * p SE(ln p) and 95 % interval exp(ln p +- t SE(ln p)), both in the unit of p; null when fixed or not identifiable.
+ */
 export interface CbpEstimate {
   readonly name: "T" | "S";
   readonly unit: "m2/d" | "1";
@@ -53,6 +65,11 @@ export interface CbpEstimate {
   readonly fixed: boolean;
 }
 
+/**
+ * Outcome of cooperBredehoeftPapadopulosFit: T (m2/d) and S (dimensionless) with uncertainties and their ln T -
+ * ln S correlation, alpha = rw^2 S / rc^2, K (m/d) and Ss (1/m) when the thickness is given, the residual
+ * standard error (in H/H0), observed and fitted H/H0 at times t (d), start values, convergence, notes, warnings.
+ */
 export interface CbpFitResult {
   readonly method: "cooper-bredehoeft-papadopulos-1967";
   /** Transmissivity, m2/d. */

@@ -14,6 +14,7 @@ import type { ValueWithUnit } from "../data/index.js";
 import { fitRecoveryLine, type RecoveryLine } from "./log-linear-recovery.js";
 import { lengthInMetres, normalizeSlugRecord, type SlugFitRange, type SlugTestRecord } from "./slug-data.js";
 
+/** Well geometry for hvorslevSlugTest: rc, R and Le as lengths with their units (any length unit, converted to m). */
 export interface HvorslevGeometry {
   /** Radius of the casing where the water level moves, rc. */
   readonly casingRadius: ValueWithUnit;
@@ -23,6 +24,10 @@ export interface HvorslevGeometry {
   readonly intakeLength: ValueWithUnit;
 }
 
+/**
+ * Outcome of a straight-line slug analysis (Hvorslev or Bouwer & Rice): hydraulic conductivity K with its
+ * standard error and 95 % interval (m/d), the fitted line ln(H/H0) = a - b t (b in 1/d), notes and warnings.
+ */
 export interface SlugConductivityResult {
   readonly method: "hvorslev-1951" | "bouwer-rice-1976";
   /** Hydraulic conductivity K, m/d. */
@@ -38,6 +43,10 @@ export interface SlugConductivityResult {
   readonly warnings: string[];
 }
 
+/**
+ * Settings of the straight-line slug analyses: the part of the record fitted (times in the record's time unit,
+ * heads as H/H0) and whether the line is forced through H/H0 = 1 at t = 0.
+ */
 export interface SlugLineOptions {
   /** Part of the record to fit; default all points with H/H0 > 0. */
   readonly range?: SlugFitRange;

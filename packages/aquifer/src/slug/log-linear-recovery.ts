@@ -15,6 +15,11 @@ import { fitStraightLine } from "../steptest/line-fit.js";
 import { SlugTestInputError } from "./errors.js";
 import type { NormalizedSlugRecord } from "./slug-data.js";
 
+/**
+ * The least-squares line ln(H/H0) = a - b t of a slug-test record, as returned by fitRecoveryLine: decay rate b
+ * (1/d) with its standard error (1/d), basic time lag T0 = 1/b (d), intercept a and residuals (in ln(H/H0),
+ * dimensionless), times (d) and H/H0 of the points used, and R^2.
+ */
 export interface RecoveryLine {
   /** Decay rate b of ln(H/H0) = a - b t, 1/d. */
   readonly decayRate: number;

@@ -28,6 +28,10 @@ import { fitStraightLine } from "./line-fit.js";
 import { splitRecordIntoSteps } from "./step-data.js";
 import type { StepTestResult } from "./step-result.js";
 
+/**
+ * Settings of hantushBierschenkStepTest: the elapsed time dt (d) and the fraction of each step, at its end, fitted
+ * for the extrapolation (dimensionless).
+ */
 export interface HantushBierschenkOptions {
   /** Elapsed time within each step at which increments are taken, d; default the shortest step duration. */
   readonly elapsed?: number;
@@ -56,6 +60,10 @@ export interface DrawdownIncrement {
   readonly transmissivityFromSlope: number | null;
 }
 
+/**
+ * Outcome of hantushBierschenkStepTest: the shared step-test result (B d/m2, C d2/m5, n = 2), the elapsed time
+ * dt used (d), and the drawdown increment of each step (rates m3/d, drawdowns m).
+ */
 export interface HantushBierschenkResult extends StepTestResult {
   /** The elapsed time dt used, d. */
   readonly elapsed: number;

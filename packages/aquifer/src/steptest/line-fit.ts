@@ -10,6 +10,10 @@
 
 import { studentTQuantile } from "../fit/student-t.js";
 
+/**
+ * Ordinary least-squares line y = a + b x as returned by fitStraightLine: coefficients, standard errors,
+ * covariance and 95 % intervals, fit quality and residuals, all in the units of the caller's x and y.
+ */
 export interface StraightLineFit {
   /** Intercept a, in the unit of y. */
   readonly intercept: number;

@@ -21,6 +21,7 @@ import { stepPerformance, wellLossCoefficientUnit } from "./step-performance.js"
 import type { StepTestParameter, StepTestResult } from "./step-result.js";
 import { waltonWellCondition } from "./well-condition.js";
 
+/** Settings of rorabaughStepTest: bounds and starting value of the well-loss exponent n (dimensionless). */
 export interface RorabaughOptions {
   /** Bounds of the exponent n; default [1, 5]. Rorabaugh reported values from about 1.5 to 3.5 (from memory). */
   readonly exponentBounds?: readonly [number, number];

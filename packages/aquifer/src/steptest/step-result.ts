@@ -17,6 +17,11 @@ export interface StepTestParameter {
   readonly ci95: readonly [number, number] | null;
 }
 
+/**
+ * Outcome of a step-drawdown analysis (Jacob, Rorabaugh or Hantush-Bierschenk): the coefficients of
+ * s_w = B Q + C Q^n with uncertainties, per-step performance, fit quality, Walton's hint, notes and warnings.
+ * Base units: Q m3/d, s_w m, B d/m2, C d^n/m^(3n-1).
+ */
 export interface StepTestResult {
   readonly method: "jacob-1947" | "rorabaugh-1953" | "hantush-bierschenk-1964";
   /** B, C and, for Rorabaugh, n. */

@@ -19,6 +19,10 @@ export type WellConditionClass =
   | "severe deterioration or clogging"
   | "difficult to restore to original capacity";
 
+/**
+ * Walton's (1962) condition class for a well-loss coefficient C (d^2/m^5, Q in m3/d and s in m), with the class
+ * limits used and their source; a hint for a reviewer, not a diagnosis.
+ */
 export interface WellConditionHint {
   readonly condition: WellConditionClass;
   /** The C classified, d^2/m^5. */
