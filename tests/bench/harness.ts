@@ -47,16 +47,24 @@ export async function bestOfAsync<T>(repeats: number, fn: () => Promise<T>, chec
 
 const PEER_SCRIPT = fileURLToPath(new URL("./peer/peer_bench.py", import.meta.url));
 
-/** Runs the scipy peer for the named cases; null (with the reason printed) when python3/scipy is missing. */
-export function runPeer(cases: readonly string[]): Record<string, Record<string, unknown>> | null {
+/**
+ * Runs a Python peer script with the given arguments and parses the one JSON object it prints; null, with the
+ * reason printed, when python3 or scipy is missing or the script fails.
+ */
+export function runPythonPeer(script: string, args: readonly string[]): Record<string, Record<string, unknown>> | null {
   const python = process.env.CONEBOOK_PYTHON ?? "/usr/bin/python3";
-  const run = spawnSync(python, [PEER_SCRIPT, ...cases], { encoding: "utf8", timeout: 600_000 });
+  const run = spawnSync(python, [script, ...args], { encoding: "utf8", timeout: 600_000, maxBuffer: 64 * 2 ** 20 });
   if (run.status !== 0) {
-    console.log(`peer unavailable (${python} ${PEER_SCRIPT}): ${run.error?.message ?? run.stderr.trim().split("\n").pop()}`);
+    console.log(`peer unavailable (${python} ${script}): ${run.error?.message ?? run.stderr.trim().split("\n").pop()}`);
     console.log("install it with: apt-get install python3-scipy python3-mpmath");
     return null;
   }
   return JSON.parse(run.stdout) as Record<string, Record<string, unknown>>;
+}
+
+/** Runs the scipy peer (peer/peer_bench.py) for the named cases; null when it is unavailable. */
+export function runPeer(cases: readonly string[]): Record<string, Record<string, unknown>> | null {
+  return runPythonPeer(PEER_SCRIPT, cases);
 }
 
 /** One line describing this machine. */

@@ -5,52 +5,34 @@
  * the same run on identical inputs. The values of both sides are compared, so the figures time work that
  * agrees.
  */
-import { spawnSync } from "node:child_process";
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { PAPADOPULOS_COOPER_STEHFEST_TERMS, fitModel, papadopulosCooperModel } from "@conebook/aquifer";
 import {
   LEAKY_STORAGE_STEHFEST_TERMS,
-  hantushAquitardStorageModel,
-} from "../../../packages/aquifer/src/models/hantush-aquitard-storage.js";
-import {
   NEUMAN_SERIES_TOLERANCE,
   NEUMAN_STEHFEST_TERMS,
+  PAPADOPULOS_COOPER_STEHFEST_TERMS,
+  fitModel,
+  hantushAquitardStorageModel,
   neumanModel,
-} from "../../../packages/aquifer/src/models/neuman.js";
-import { bestOf, logspace, type Measurement } from "../harness.js";
+  papadopulosCooperModel,
+} from "@conebook/aquifer";
+import { bestOf, logspace, runPythonPeer, type Measurement } from "../harness.js";
 import { normalGenerator } from "../../support/seeded-noise.js";
 
 type PeerOutput = Record<string, Record<string, unknown>>;
 
-/**
- * Path of the peer script. Under tsx import.meta.url is this file; in the esbuild bundle of
- * bundle-and-run.mjs it is tests/bench/run.ts; the script is looked for beside both.
- */
-function peerScript(): string {
-  const candidates = ["../peer/laplace_peer.py", "./peer/laplace_peer.py"].map((p) => fileURLToPath(new URL(p, import.meta.url)));
-  return candidates.find((p) => existsSync(p)) ?? candidates[0]!;
-}
+const PEER_SCRIPT = fileURLToPath(new URL("../peer/laplace_peer.py", import.meta.url));
 
-/**
- * Runs a Python peer script on one JSON input (written to a temporary file passed as its only argument) and
- * parses the one JSON object it prints; null, with the reason printed, when python3 or scipy is missing.
- */
+/** Runs the peer on one JSON input, written to a temporary file passed as its only argument. */
 function runJsonPeer(script: string, input: unknown): PeerOutput | null {
-  const python = process.env.CONEBOOK_PYTHON ?? "/usr/bin/python3";
   const folder = mkdtempSync(join(tmpdir(), "conebook-laplace-peer-"));
   try {
     const file = join(folder, "input.json");
     writeFileSync(file, JSON.stringify(input));
-    const run = spawnSync(python, [script, file], { encoding: "utf8", timeout: 600_000, maxBuffer: 64 * 2 ** 20 });
-    if (run.status !== 0) {
-      console.log(`peer unavailable (${python} ${script}): ${run.error?.message ?? run.stderr.trim().split("\n").pop()}`);
-      console.log("install it with: apt-get install python3-scipy python3-numpy");
-      return null;
-    }
-    return JSON.parse(run.stdout) as PeerOutput;
+    return runPythonPeer(script, [file]);
   } finally {
     rmSync(folder, { recursive: true, force: true });
   }
@@ -159,7 +141,7 @@ export function laplaceModelBenchmarks(): Measurement[] {
   const fitPoints = fitWells.reduce((n, w) => n + w.t.length, 0);
   const parameterNames = fitModelB.parameters.map((p) => p.name);
 
-  const peer = runJsonPeer(peerScript(), {
+  const peer = runJsonPeer(PEER_SCRIPT, {
     "papadopulos-cooper": {
       parameters: PAPADOPULOS.parameters,
       Q: PAPADOPULOS.Q,
