@@ -2,8 +2,9 @@
  * Bounded Levenberg-Marquardt least squares, minimising sum r_i(x)^2 over a box lo <= x <= hi.
  *
  * Algorithm: the trust-region form of Levenberg-Marquardt with Moré's diagonal scaling and step control
- * (J. J. Moré, "The Levenberg-Marquardt algorithm: implementation and theory", Lecture Notes in Mathematics
- * 630, 1978; the MINPACK lmder routine follows it). Differences from MINPACK:
+ * (J. J. Moré, "The Levenberg-Marquardt algorithm: implementation and theory", in G. A. Watson (ed.),
+ * Numerical Analysis, Dundee 1977, Springer, vol. 630, 1978, pp. 105-116; the MINPACK lmder routine follows
+ * it). Differences from MINPACK:
  * - the trust-region subproblem is solved from the SVD of R D^-1 (R from a Householder QR of J), so the
  *   secular equation ||D dx(lambda)|| = Delta costs O(p^2) per trial lambda;
  * - bounds by an active set and projection (Kanzow, Yamashita & Fukushima 2004, "Levenberg-Marquardt methods
