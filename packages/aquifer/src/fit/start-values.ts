@@ -18,7 +18,11 @@ import type { PackedWell } from "./observations.js";
 import { weightedResiduals } from "./observations.js";
 import type { ParameterSpace } from "./parameter-space.js";
 
-/** How the starting values were obtained. */
+/**
+ * How the starting values were obtained: given by the caller; "cooper-jacob" from the models module's
+ * startingValues rule for the model (the Cooper-Jacob line, or for hantush-jacob a type-curve search; the
+ * notes say which); or a grid search across the bounds.
+ */
 export type StartMethod = "given" | "cooper-jacob" | "grid-search";
 
 export interface StartValues {
@@ -128,11 +132,11 @@ export function deriveStartValues(
       for (const k of missing) if (!Number.isFinite(derived.values[k]!)) usable = false;
       if (usable) {
         for (const k of missing) values[k] = derived.values[k]!;
-        notes.push(`Start from the straight-line rule on well "${first.name}": ${derived.notes.join(" ")}`);
+        notes.push(`Start from the data of well "${first.name}" (startingValues): ${derived.notes.join(" ")}`);
         method = "cooper-jacob";
       }
     } catch (error) {
-      notes.push(`No straight-line start (${error instanceof Error ? error.message : String(error)}); using a grid search.`);
+      notes.push(`No start from the data (${error instanceof Error ? error.message : String(error)}); using a grid search.`);
     }
   }
   if (method === "grid-search") {
