@@ -3,7 +3,7 @@
  * for a reviewer (a quote that drifted from the fit, a figure from elsewhere). A number written with s
  * significant digits matches a computed value that rounds to it at s digits (sign ignored: prose says "falls by
  * 0.8" of a slope of −0.78). Computed values are those of every output (values, controls, table cells, numbers
- * inside text outputs and table text, the extremes of chart data) and of the header (template parameters and
+ * inside text outputs, table text and column names, the extremes of chart data) and of the header (template parameters and
  * test information).
  *
  * Not checked, by rule: code spans and blocks, narrative references, link targets, whole numbers below 10
@@ -114,6 +114,7 @@ export function computedNumbers(outputsByCell: Readonly<Record<string, readonly 
           break;
         case "table":
           o.rows.forEach((r) => r.forEach(add));
+          o.columns.forEach((c) => add(c.name));
           if (o.title) add(o.title);
           break;
         case "text":
