@@ -223,6 +223,11 @@ export function resolveReference(
     });
   }
   if (hits.length === 0) return { problem: `cell ${ref.cellId} has no value labelled "${key}" and no table row "${key}"` };
+  // Of rows in several tables, keep those whose table has the column asked for (or, with none named, estimates).
+  if (new Set(hits.map((h) => h.i)).size > 1) {
+    const fitting = hits.filter((h) => (ref.path.length === 2 ? h.t.columns.some((c) => c.name === ref.path[1]) : estimateColumns(h.t.columns) !== undefined));
+    if (fitting.length > 0) hits.splice(0, hits.length, ...fitting);
+  }
   const tables = new Set(hits.map((h) => h.i));
   if (hits.length > 1) {
     return {

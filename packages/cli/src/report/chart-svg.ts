@@ -76,18 +76,23 @@ const LEGEND_CHANNELS = ["color", "fill", "stroke", "shape", "strokeDash", "opac
 
 /**
  * The layers of a layered chart that no legend describes: a mark whose encoding has no field or datum on a
- * legend channel (color, fill, stroke, shape, strokeDash, opacity, size), in a chart of more than one layer.
+ * legend channel (color, fill, stroke, shape, strokeDash, opacity, size), in a chart of more than one layer
+ * other than rules.
  * Their numbers (1-based), for a note that a reader could not tell those marks apart.
  */
 export function layersWithoutLegend(spec: Record<string, unknown>): number[] {
   const layers = Array.isArray(spec.layer) ? spec.layer : undefined;
-  if (!layers || layers.length < 2) return [];
-  const out: number[] = [];
-  layers.forEach((layer: unknown, i) => {
-    const encoding = (layer as { encoding?: Record<string, unknown> } | null)?.encoding ?? {};
+  const markType = (layer: unknown): string | undefined => {
     const mark = (layer as { mark?: unknown } | null)?.mark;
-    const markType = typeof mark === "string" ? mark : (mark as { type?: string } | undefined)?.type;
-    if (markType === "rule") return;
+    return typeof mark === "string" ? mark : (mark as { type?: string } | undefined)?.type;
+  };
+  // Reference lines (rules) need no legend; one data layer beside them is told apart by the axis titles.
+  const marked = (layers ?? []).filter((l: unknown) => markType(l) !== "rule");
+  if (marked.length < 2) return [];
+  const out: number[] = [];
+  layers!.forEach((layer: unknown, i) => {
+    const encoding = (layer as { encoding?: Record<string, unknown> } | null)?.encoding ?? {};
+    if (markType(layer) === "rule") return;
     const described = LEGEND_CHANNELS.some((c) => {
       const e = encoding[c] as { field?: unknown; datum?: unknown } | undefined;
       return e !== undefined && (e.field !== undefined || e.datum !== undefined);
