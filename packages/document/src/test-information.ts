@@ -95,6 +95,7 @@ export function readTestInformation(raw: unknown, problem: TestInformationProble
     delete info.ended;
   }
   const unitsNeeded = { length: false, time: false, rate: false };
+  const unitsReported = new Set<string>();
   if (raw.units !== undefined) {
     if (!isObject(raw.units)) problem(`${base}.units`, "a mapping {length, time, rate} of unit names");
     else {
@@ -117,7 +118,7 @@ export function readTestInformation(raw: unknown, problem: TestInformationProble
           }
         }
         if (ok) units[key as keyof typeof dims] = v as string;
-        else problem(path, `a unit of ${dim === "discharge" ? "pumping rate (such as m3/d or L/s)" : dim === "length" ? "length (such as m)" : "time (such as min)"}`);
+        else unitsReported.add(key), problem(path, `a unit of ${dim === "discharge" ? "pumping rate (such as m3/d or L/s)" : dim === "length" ? "length (such as m)" : "time (such as min)"}`);
       }
       info.units = units;
     }
@@ -176,7 +177,7 @@ export function readTestInformation(raw: unknown, problem: TestInformationProble
     }
   }
   for (const [key, needed] of Object.entries(unitsNeeded)) {
-    if (needed && info.units?.[key as "length"] === undefined) {
+    if (needed && info.units?.[key as "length"] === undefined && !unitsReported.has(key)) {
       problem(`${base}.units.${key}`, `given: the ${key === "length" ? "distances and screens" : key === "time" ? "times of the rate schedule" : "rates"} need their unit (add units: {${key}: ${key === "length" ? "m" : key === "time" ? "min" : "m3/d"}})`);
     }
   }

@@ -159,8 +159,9 @@ function validateHeader(doc: ConebookDocument, at: (path: string) => Position, e
         }
       });
   }
-  if (h.testInformation !== undefined) {
-    // A parsed header holds only fields that read cleanly; this finds problems in headers built in memory.
+  if (h.testInformation !== undefined && doc.layout === undefined) {
+    // A parsed header holds only the fields that read cleanly (the reader reported the rest); this finds
+    // problems in headers built in memory.
     const info = h.testInformation as TestInformation;
     readTestInformation(typeof info === "object" && info !== null ? testInformationToRaw(info) : info, typeError);
   }
