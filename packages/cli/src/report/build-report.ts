@@ -179,7 +179,7 @@ function appendixDataHtml(input: ReportInput, readings: Body["readings"], labels
     parts.push(`<p>The analysis listed every reading it read with whether it used it (<code>show.readings</code>); a reading left out says why.</p>`);
     readings.forEach((r, i) => {
       const label = labels[i]!;
-      const html = tableHtml(r.table, label, `table-${label}`, `${r.table.title ?? "Readings"} (cell ${r.cellId})`).replace("<table ", '<table class="readings" ');
+      const html = tableHtml(r.table, label, `table-${label}`, `${r.table.title ?? "Readings"} (cell ${r.cellId}); times and drawdowns as the analysis read them`, true).replace("<table ", '<table class="readings" ');
       parts.push(html.replace(/<td>(left out[^<]*)<\/td>/g, '<td class="left-out">$1</td>'));
     });
   } else {

@@ -59,7 +59,7 @@ function titleText(title: unknown): string | undefined {
 /**
  * The spec as a report draws it: its title taken out to become the figure's caption, and a top-level numeric
  * width (and height, in proportion) set to REPORT_CHART_WIDTH so the figure fills the text width without
- * scaling its lettering; faceted and concatenated charts keep their sizes.
+ * scaling its lettering (faceted and concatenated charts keep their sizes), and legend labels shown in full.
  */
 export function reportChartSpec(spec: Record<string, unknown>): { spec: Record<string, unknown>; caption?: string } {
   const { title, ...rest } = spec;
@@ -69,6 +69,10 @@ export function reportChartSpec(spec: Record<string, unknown>): { spec: Record<s
     rest.width = REPORT_CHART_WIDTH;
     rest.height = Math.round(REPORT_CHART_WIDTH * ratio);
   }
+  // Legend labels in full (vega-lite cuts them at 160 px by default), unless the spec sets its own limit.
+  const config = (typeof rest.config === "object" && rest.config !== null ? rest.config : {}) as Record<string, unknown>;
+  const legend = (typeof config.legend === "object" && config.legend !== null ? config.legend : {}) as Record<string, unknown>;
+  if (legend.labelLimit === undefined) rest.config = { ...config, legend: { ...legend, labelLimit: 0 } };
   return caption === undefined ? { spec: rest } : { spec: rest, caption };
 }
 

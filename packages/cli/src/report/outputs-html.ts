@@ -54,6 +54,12 @@ function plainCell(v: Value): string {
   return v === null ? "" : escapeHtml(v);
 }
 
+function exactCell(v: Value): string {
+  // 12 significant digits: every digit a logger records, without the last-bit noise of a computed difference.
+  if (typeof v === "number") return numberHtml(String(Number(v.toPrecision(12))).replace("-", "−"), v);
+  return v === null ? "" : escapeHtml(v);
+}
+
 /** The column heading with its unit in parentheses (no unit for a dimensionless quantity). */
 function headingHtml(c: Table["columns"][number]): string {
   const unit = typesetUnit(c.unit);
@@ -92,14 +98,19 @@ function estimateRowsHtml(t: Table, roles: NonNullable<ReturnType<typeof estimat
     .join("\n");
 }
 
-/** A table with its number and caption. `label` is "3" or "A1". */
-export function tableHtml(t: Table, label: string, anchor: string, caption: string): string {
+/**
+ * A table with its number and caption. `label` is "3" or "A1". With `exact`, numbers are shown to 12
+ * significant digits, trailing zeros dropped (every digit of a recorded reading), as a list of readings should be.
+ */
+export function tableHtml(t: Table, label: string, anchor: string, caption: string, exact = false): string {
   const roles = estimateColumns(t.columns);
   const shown = t.columns.map((_, i) => i).filter((i) => roles?.note === undefined || i !== roles.note);
   const head = shown.map((i) => `<th>${headingHtml(t.columns[i]!)}</th>`).join("");
   const body = roles
     ? estimateRowsHtml(t, roles, shown)
-    : t.rows.map((r) => `<tr>${shown.map((i) => `<td${typeof r[i] === "number" ? ' class="num"' : ""}>${plainCell(r[i] ?? null)}</td>`).join("")}</tr>`).join("\n");
+    : t.rows
+        .map((r) => `<tr>${shown.map((i) => `<td${typeof r[i] === "number" ? ' class="num"' : ""}>${exact ? exactCell(r[i] ?? null) : plainCell(r[i] ?? null)}</td>`).join("")}</tr>`)
+        .join("\n");
   return (
     `<table id="${anchor}"><caption><span class="label">Table ${escapeHtml(label)}.</span> ${escapeHtml(caption)}</caption>` +
     `<thead><tr>${head}</tr></thead><tbody>\n${body}\n</tbody></table>`
