@@ -13,7 +13,7 @@
 import { mkdir, mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
 import { existsSync } from "node:fs";
 import { tmpdir } from "node:os";
-import { join } from "node:path";
+import { basename, dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { sha256Hex } from "@conebook/document";
@@ -95,7 +95,8 @@ beforeAll(async () => {
   for (const [name, path] of Object.entries(documents)) {
     const out = join(dir, `${name}.html`);
     const pdf = name === "demo" ? ["--pdf", join(dir, "demo.pdf")] : name === "from-template" ? ["--pdf", join(dir, "from-template.pdf"), "--paper", "Letter"] : [];
-    const r = await conebook(ROOT, "export", path, "-o", out, "--run-date", "2026-03-14", ...pdf);
+    // From the document's folder, so that the report names it the same wherever the test runs.
+    const r = await conebook(dirname(path), "export", basename(path), "-o", out, "--run-date", "2026-03-14", ...pdf);
     expect(r.code, r.err).toBe(0);
     reports[name] = { html: await readFile(out, "utf8"), document: path };
   }

@@ -165,7 +165,8 @@ describe("buildReport", () => {
 describe("reportChartSpec and layersWithoutLegend", () => {
   it("takes the title out as the caption, widens the plot to the text width, and finds layers no legend describes", () => {
     const spec = { title: "Forecast", width: 480, height: 320, layer: [{ mark: "line", encoding: { color: { datum: "a" } } }, { mark: { type: "line" }, encoding: {} }, { mark: "rule" }] };
-    expect(reportChartSpec(spec)).toEqual({ spec: { width: 560, height: 373, layer: spec.layer }, caption: "Forecast" });
+    expect(reportChartSpec(spec)).toEqual({ spec: { width: 560, height: 373, layer: spec.layer, config: { legend: { labelLimit: 0 } } }, caption: "Forecast" });
+    expect(reportChartSpec({ mark: "point", config: { legend: { labelLimit: 90 } } })).toEqual({ spec: { mark: "point", config: { legend: { labelLimit: 90 } } } });
     expect(layersWithoutLegend(spec)).toEqual([2]);
     expect(layersWithoutLegend({ layer: [{ mark: "point", encoding: {} }, { mark: "rule" }] })).toEqual([]);
   });
