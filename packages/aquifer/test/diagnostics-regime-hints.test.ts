@@ -40,6 +40,15 @@ describe("regime hints", () => {
     expect(flat.message).toMatch(/infinite-acting radial flow/);
   });
 
+  it("states the time range with the time unit when one is given, and refuses a unit that is not a time", () => {
+    const t = logGrid(-5, 2, 20);
+    const d = bourdetDerivative(t, t.map((x) => C * expint1(a / x)), { smoothingLog10: 0.2 });
+    const flat = regimeHints(d, { lengthUnit: "m", timeUnit: "d", pumpingRate: rate }).hints.find((h) => h.kind === "flat")!;
+    expect(flat.message).toMatch(/from t = [0-9.e-]+ to 100 d at level/);
+    expect(regimeHints(d, { lengthUnit: "m" }).hints[0]!.message).toMatch(/from t = [0-9.e-]+ to 100 at level/);
+    expect(() => regimeHints(d, { lengthUnit: "m", timeUnit: "m" })).toThrow(/time/);
+  });
+
   it("labels unit slope on s = C t data with slope 1", () => {
     // s = c t: ds/d ln t = c t, log-log slope exactly 1 (well-bore storage shape, Papadopulos-Cooper early time).
     const t = logGrid(-4, -1, 10);

@@ -1,6 +1,7 @@
 // Bundles the `conebook` command into packages/cli/dist/ with esbuild, so that it starts without compiling
 // TypeScript at each launch (bin/conebook.js uses the bundle while it is newer than every source file).
-// The QuickJS packages stay external: they locate their .wasm file relative to their own module.
+// The QuickJS packages stay external: they locate their .wasm file relative to their own module; so do the
+// browser packages used for PDF printing.
 import { build } from "esbuild";
 import { rename, rm } from "node:fs/promises";
 import { fileURLToPath } from "node:url";
@@ -17,7 +18,8 @@ await build({
   format: "esm",
   platform: "node",
   target: "node20",
-  external: ["@jitl/*", "quickjs-emscripten-core"],
+  // playwright-core and @sparticuz/chromium (PDF printing) find their own files beside their modules too.
+  external: ["@jitl/*", "quickjs-emscripten-core", "playwright-core", "@sparticuz/chromium"],
   // Some bundled CommonJS modules call require() for Node built-ins.
   banner: { js: "import { createRequire as conebookCreateRequire } from 'node:module'; const require = conebookCreateRequire(import.meta.url);" },
   logLevel: "warning",

@@ -1,5 +1,5 @@
 /** Number and output formatting shared by the terminal summary and the report. */
-import type { CellOutput } from "@conebook/document";
+import { isDimensionless, type CellOutput } from "@conebook/document";
 
 /**
  * A number for reading: 6 significant digits, trailing zeros dropped, exponent form below 1e-4 and from 1e6 in
@@ -23,7 +23,7 @@ function clip(s: string, max: number): string {
 export function outputDigest(o: CellOutput): string {
   switch (o.type) {
     case "value":
-      return `${o.label ? `${o.label} = ` : ""}${formatNumber(o.value)}${o.unit ? ` ${o.unit}` : ""}`;
+      return `${o.label ? `${o.label} = ` : ""}${formatNumber(o.value)}${isDimensionless(o.unit) ? "" : ` ${o.unit}`}`;
     case "text":
       return JSON.stringify(clip(o.text, 40));
     case "table":

@@ -104,7 +104,8 @@ seed: 1
 
 [narrative:bad]: #
 
-Text with <script>alert(2)</script> and <img src=x onerror=alert(3)>.
+Text with <script>alert(2)</script> and <img src=x onerror=alert(3)>, a reference {=evil/"<script>alert(8)</script>"}
+and one that is not {=<script>alert(9)</script>}.
 
 \`\`\`ts code:evil
 show("</pre><script>alert(4)</script>");
@@ -300,11 +301,14 @@ describe("conebook run --write, verify and export", () => {
   });
 
   it("exports one offline HTML report with an inline SVG chart, the CSP, the caution, provenance and no script", async () => {
-    const [recorded, hostile] = await Promise.all([
+    const [recorded, hostile, unverified, edited] = await Promise.all([
       conebook(dir, "export", "demo.cone.md", "-o", "report.html", "--run-date", "2026-03-14"),
       conebook(dir, "export", "hostile.cone.md", "-o", "hostile.html", "--rerun"),
+      conebook(dir, "export", "demo.cone.md", "-o", "unverified.html", "--no-verify"),
+      conebook(dir, "export", "edited.cone.md", "-o", "edited.html"),
     ]);
     expect(recorded.code).toBe(0);
+    expect(recorded.stdout).toBe("wrote report.html: report of demo.cone.md (1 chart drawn; verified)\n");
     const html = await read("report.html");
     expect(html).toMatch(/<svg[^>]*xmlns="http:\/\/www\.w3\.org\/2000\/svg"/);
     expect(html).toContain(`<meta http-equiv="Content-Security-Policy" content="default-src 'none'; img-src data:; style-src 'unsafe-inline'">`);
@@ -312,10 +316,18 @@ describe("conebook run --write, verify and export", () => {
     expect(html).toContain("qualified professionals");
     expect(html).toContain("licensed practice govern");
     expect(html).not.toMatch(/<script/i);
-    expect(html).toContain("<details><summary>Code (cell slope)</summary>");
+    expect(html).toContain('<details class="code"><summary>Code (cell slope)</summary>');
+    expect(html).toContain("<strong>Verified at export.</strong> export reran the document: all 5 recorded outputs of 3 cells");
     expect(html).toContain(sha256Hex(utf8Bytes(await read("demo.cone.md"))));
     expect(html).toContain(sha256Hex(utf8Bytes(CSV)));
-    expect(html).toContain("<dt>Run date</dt><dd>2026-03-14</dd>");
+    expect(html).toContain("<dt>Date of the run</dt><dd>2026-03-14</dd>");
+    expect(unverified.code).toBe(0);
+    const skipped = await read("unverified.html");
+    expect(skipped).toContain("<strong>Not verified at export (skipped).</strong> the report was made with --no-verify");
+    expect(skipped).toContain("<dt>Date of the run</dt><dd>not stated");
+    expect(edited.code).toBe(1);
+    expect(edited.stderr).toMatch(/edited\.cone\.md:\d+: cell slope: outputs\[2\]\.value: recorded 0\.01\d+, now 0\.00\d+/);
+    expect(await read("edited.html")).toContain("<strong>Not verified at export.</strong> export reran the document and 1 output difference");
 
     expect(hostile.code).toBe(0);
     const evil = await read("hostile.html");
@@ -323,7 +335,9 @@ describe("conebook run --write, verify and export", () => {
     expect(evil).not.toMatch(/<img|<b /i);
     expect(evil).toContain("&lt;script&gt;alert(4)&lt;/script&gt;");
     expect(evil).toContain("<svg");
-    expect(evil).not.toContain("Run date");
+    expect(evil).not.toContain("alert(8)</script>");
+    expect(evil).toContain("&lt;script&gt;alert(9)&lt;/script&gt;");
+    expect(evil).toContain("Not verified at export (skipped).");
   });
 });
 

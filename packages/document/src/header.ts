@@ -3,13 +3,14 @@
  * fresh one, and rewriting a parsed one so that only the values that changed are touched.
  *
  * YAML keys (see docs/format.md): conebook, title, seed, recordedWith, limits.cellTimeMs, limits.memoryMb,
- * parameters, dataSlots. Any other key is kept in `extra`.
+ * parameters, dataSlots, testInformation (test-information.ts). Any other key is kept in `extra`.
  */
 
 import { Document, LineCounter, isMap, isScalar, isSeq, parseDocument, stringify } from "yaml";
 import type { Node as YamlNode } from "yaml";
 import { DocumentError, diagnostic } from "./errors.js";
 import { messages } from "./messages.js";
+import { readTestInformation, testInformationToRaw } from "./test-information.js";
 import { stableStringify } from "./text.js";
 import type { DataSlot, Diagnostic, DocumentHeader, Position, TemplateParameter } from "./types.js";
 
@@ -32,7 +33,7 @@ export const MAX_MEMORY_LIMIT_MB = 4096;
 export const YAML_WRITE_OPTIONS = { lineWidth: 0, doubleQuotedMinMultiLineLength: Number.MAX_SAFE_INTEGER, flowCollectionPadding: false } as const;
 
 /** The header keys this version understands; every other top-level key goes to `extra`. */
-export const HEADER_KEYS = ["conebook", "title", "seed", "recordedWith", "limits", "parameters", "dataSlots"] as const;
+export const HEADER_KEYS = ["conebook", "title", "seed", "recordedWith", "limits", "parameters", "dataSlots", "testInformation"] as const;
 
 export interface HeaderReading {
   header: DocumentHeader;
@@ -156,6 +157,11 @@ function headerFromRaw(
     }
   }
 
+  if (raw.testInformation !== undefined) {
+    const info = readTestInformation(raw.testInformation, typeError);
+    if (info) header.testInformation = info;
+  }
+
   for (const [k, v] of Object.entries(raw)) {
     if (!(HEADER_KEYS as readonly string[]).includes(k)) header.extra[k] = v;
   }
@@ -232,6 +238,7 @@ export function headerToRaw(h: DocumentHeader): Raw {
       return o;
     });
   }
+  if (h.testInformation !== undefined) raw.testInformation = testInformationToRaw(h.testInformation);
   for (const [k, v] of Object.entries(h.extra)) if (!(k in raw)) raw[k] = v;
   return raw;
 }

@@ -46,3 +46,25 @@ export { headerSchema, chartSpecSchema } from "./schema.js";
 export { validateJsonSchema } from "./json-schema.js";
 export type { JsonSchema, SchemaProblem } from "./json-schema.js";
 export { readOutputs, writeOutputs, outputShapeProblem } from "./outputs.js";
+export { readTestInformation, testInformationSchema, testDateValue } from "./test-information.js";
+export type { TestInformation, TestWell, RateStep } from "./test-information.js";
+export {
+  DEFAULT_SIGNIFICANT_DIGITS,
+  MINUS,
+  ROUNDING_RULE_TEXT,
+  formatAtPlace,
+  formatPlain,
+  formatQuantity,
+  formatWithUncertainty,
+  isDimensionless,
+  typesetUnit,
+  uncertaintyPlace,
+} from "./number-text.js";
+export type { RoundedEstimate } from "./number-text.js";
+export { estimateColumns, rowUncertainty, unconstrainedReason } from "./estimate-columns.js";
+export type { EstimateColumns } from "./estimate-columns.js";
+export { codeRanges, findReferences, positionInSource, readReference, referenceText, resolveReference } from "./references.js";
+export type { FoundReference, NarrativeReference, ResolvedReference } from "./references.js";
+export { computedNumbers, matchesComputed, narrativeNumbers, numberIndex, numbersInText, unmatchedNumbers } from "./narrative-numbers.js";
+export type { NarrativeNumber } from "./narrative-numbers.js";
+export type { ReferenceRendering, RenderNarrativeOptions } from "./render.js";

@@ -8,6 +8,7 @@
 
 import { MAX_CELL_TIME_LIMIT_MS, MAX_MEMORY_LIMIT_MB } from "./header.js";
 import type { JsonSchema } from "./json-schema.js";
+import { testInformationSchema } from "./test-information.js";
 
 const text: JsonSchema = { type: "string" };
 
@@ -62,6 +63,7 @@ export const headerSchema: JsonSchema = {
         },
       },
     },
+    testInformation: testInformationSchema,
   },
 };
 

@@ -6,6 +6,8 @@
  * `serializeDocument` write untouched parts back byte for byte and regenerate only what changed.
  */
 
+import type { TestInformation } from "./test-information.js";
+
 /** A place in the document text. Both numbers are 1-based; columns count UTF-16 code units. */
 export interface Position {
   line: number;
@@ -45,6 +47,8 @@ export interface DocumentHeader {
   memoryLimitMb?: number;
   parameters: TemplateParameter[];
   dataSlots?: DataSlot[];
+  /** Facts of the test for a report (header key `testInformation`): site, dates, wells, rates, people, units. */
+  testInformation?: TestInformation;
   /** Header keys this version does not know, kept as parsed so they survive a rewrite. */
   extra: Record<string, unknown>;
 }

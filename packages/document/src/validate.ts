@@ -10,6 +10,7 @@ import { messages } from "./messages.js";
 import { outputShapeProblem } from "./outputs.js";
 import { chartSpecSchema } from "./schema.js";
 import { validateJsonSchema } from "./json-schema.js";
+import { readTestInformation, testInformationToRaw, type TestInformation } from "./test-information.js";
 import type { Cell, ConebookDocument, Diagnostic, Position } from "./types.js";
 
 /** Well-formed cell ids: a letter, then letters, digits, '-' or '_'; at most 64 characters. */
@@ -157,6 +158,12 @@ function validateHeader(doc: ConebookDocument, at: (path: string) => Position, e
           typeError(`dataSlots.${i}.name`, "a non-empty string");
         }
       });
+  }
+  if (h.testInformation !== undefined && doc.layout === undefined) {
+    // A parsed header holds only the fields that read cleanly (the reader reported the rest); this finds
+    // problems in headers built in memory.
+    const info = h.testInformation as TestInformation;
+    readTestInformation(typeof info === "object" && info !== null ? testInformationToRaw(info) : info, typeError);
   }
   if (typeof h.extra !== "object" || h.extra === null) typeError("extra", "an object of unknown header keys");
 }

@@ -325,6 +325,7 @@ const bourdetOptionsArg = recordArg({ smoothingLog10: optional(nonNegative), end
 
 const regimeOptionsArg = recordArg({
   lengthUnit: stringArg(),
+  timeUnit: optional(stringArg()),
   pumpingRate: optional(quantityArg),
   windowLog10: optional(positive),
   flatTolerance: optional(positive),

@@ -117,7 +117,9 @@ function fitTitle(result: Record<string, unknown>): string {
  * units, as aq.fitModel returns them), then one row each for RMSE (m), AIC and BIC when the result has them.
  * Reads `result.parameters`: the FitResult shape `[{ name, label?, unit, estimate, standardError, ci95: [low,
  * high] | null, fixed? }]`, or the older spellings `value`, `se`, `interval95`, or a record keyed by name.
- * A fixed parameter is named "NAME (fixed)" and has no standard error or interval.
+ * A fixed parameter is named "NAME (fixed)" and has no standard error or interval. When a parameter ran to a
+ * bound, is not identifiable or has a standard error as large as its estimate, a last column "note" says so in
+ * words (see parameterNote).
  */
 export function fitTableOutput(result: unknown, options: unknown = {}): TableOutput {
   const params = isRecord(result) ? result.parameters : undefined;
@@ -129,6 +131,8 @@ export function fitTableOutput(result: unknown, options: unknown = {}): TableOut
   if (list.length === 0) {
     throw new DisplayError("show.fit: the value has no parameters; pass the result of aq.fitModel (an object with a `parameters` list)");
   }
+  const modelId = isRecord(result) && typeof result.modelId === "string" && isModelId(result.modelId) ? result.modelId : undefined;
+  const notes = list.map((p) => parameterNote(p, modelId));
   const rows: Cell[][] = list.map((p) => {
     const [lo, hi] = interval(pick(p, "ci95", "interval95", "confidenceInterval", "interval"));
     const name = String(cell(pick(p, "name", "id")));
@@ -151,13 +155,38 @@ export function fitTableOutput(result: unknown, options: unknown = {}): TableOut
   for (const [name, value, unit] of summary) {
     if (value !== undefined) rows.push([name, statistic(value), null, null, null, unit]);
   }
+  const columns = [{ name: "parameter" }, { name: "estimate" }, { name: "standard error" }, { name: "95 % low" }, { name: "95 % high" }, { name: "unit" }];
+  // A note column only when some parameter needs one, so that tables of well-determined fits keep their shape.
+  if (notes.some((n) => n !== null)) {
+    columns.push({ name: "note" });
+    rows.forEach((row, i) => row.push(notes[i] ?? null));
+  }
   const opts = isRecord(options) ? options : {};
-  return {
-    type: "table",
-    title: typeof opts.title === "string" ? opts.title : fitTitle(r),
-    columns: [{ name: "parameter" }, { name: "estimate" }, { name: "standard error" }, { name: "95 % low" }, { name: "95 % high" }, { name: "unit" }],
-    rows,
-  };
+  return { type: "table", title: typeof opts.title === "string" ? opts.title : fitTitle(r), columns, rows };
+}
+
+/**
+ * A parameter's state in words when the data do not determine it: at a bound of its fitting range (with what
+ * that means for the aquifer, from the model's descriptor), without a standard error (not identifiable), or
+ * with a standard error as large as the estimate. Null for a well-determined or fixed parameter.
+ */
+function parameterNote(p: Record<string, unknown>, modelId: string | undefined): string | null {
+  if (p.fixed === true) return null;
+  const name = String(cell(pick(p, "name", "id")));
+  const estimate = pick(p, "estimate", "value");
+  const se = pick(p, "standardError", "stdError", "se");
+  if (p.atBound === "lower" || p.atBound === "upper") {
+    const descriptor = modelId === undefined ? undefined : getModel(modelId).parameters.find((d) => d.name === name);
+    const meaning = descriptor?.atBound?.[p.atBound];
+    return `at the ${p.atBound} bound of its fitting range: the data do not constrain ${name}${meaning ? `; ${meaning}` : ""}`;
+  }
+  if (se === null || (typeof se === "number" && !Number.isFinite(se))) {
+    return typeof estimate === "number" ? `not identifiable from these data: no standard error` : null;
+  }
+  if (typeof se === "number" && typeof estimate === "number" && estimate !== 0 && se >= Math.abs(estimate)) {
+    return `poorly constrained: the standard error is as large as the estimate`;
+  }
+  return null;
 }
 
 /** A preview table of a series: the first and last `rows` points (default 5) of times and drawdowns. */
@@ -182,6 +211,59 @@ export function seriesPreviewOutput(series: unknown, options: unknown = {}): Tab
       { name: "drawdown", ...(lengthUnit ? { unit: lengthUnit } : {}) },
     ],
     rows: indices.map((i) => [cell(times[i]), cell(drawdowns[i])]),
+  };
+}
+
+/** The first and last column names of a readings table (readingsOutput), by which a report recognises one. */
+export const READINGS_COLUMNS = { first: "reading", last: "use" } as const;
+
+/**
+ * Every reading of an observation series with whether the analysis used it: the series' points (used unless
+ * `options.used[i]` is false, with `options.reason` (one text, or one per point) saying why not) and the
+ * readings the import left out (`series.excluded`, with their reasons), in time order. Columns: reading (the
+ * file row for excluded readings, else the point's number), time (series time unit), drawdown (series length
+ * unit), use ("used" or "left out: REASON"). A report lists these tables in its data appendix.
+ */
+export function readingsOutput(series: unknown, options: unknown = {}): TableOutput {
+  if (!isRecord(series) || !isColumn(series.times) || !isColumn(series.drawdowns)) {
+    throw new DisplayError("show.readings: pass an observation series (an object with times and drawdowns arrays), as aq.parseObservationCsv returns in .series");
+  }
+  const opts = isRecord(options) ? options : {};
+  const times = series.times;
+  const drawdowns = series.drawdowns;
+  const n = Math.min(times.length, drawdowns.length);
+  const used = opts.used;
+  if (used !== undefined && (!isColumn(used) || used.length !== n)) {
+    throw new DisplayError(`show.readings: options.used must hold one true or false per point (${n}), got ${isColumn(used) ? used.length : typeof used}`);
+  }
+  const reasonOf = (i: number): string => {
+    const r = Array.isArray(opts.reason) ? opts.reason[i] : opts.reason;
+    return typeof r === "string" && r.trim() !== "" ? r : "left out by the analysis";
+  };
+  const rows: { t: number; row: Cell[] }[] = [];
+  for (let i = 0; i < n; i++) {
+    const keep = used === undefined || Boolean((used as ArrayLike<unknown>)[i]);
+    rows.push({ t: Number(times[i]), row: [i + 1, cell(times[i]), cell(drawdowns[i]), keep ? "used" : `left out: ${reasonOf(i)}`] });
+  }
+  const excluded = Array.isArray(series.excluded) ? series.excluded.filter(isRecord) : [];
+  for (const e of excluded) {
+    rows.push({ t: typeof e.time === "number" && Number.isFinite(e.time) ? e.time : Infinity, row: [`file row ${cell(e.row)}`, cell(e.time), cell(e.value), `left out at import: ${String(e.reason ?? "")}`] });
+  }
+  rows.sort((a, b) => a.t - b.t);
+  const timeUnit = typeof series.timeUnit === "string" ? series.timeUnit : undefined;
+  const lengthUnit = typeof series.lengthUnit === "string" ? series.lengthUnit : undefined;
+  const name = typeof opts.title === "string" ? opts.title : typeof series.name === "string" ? series.name : "series";
+  const leftOut = rows.filter((r) => r.row[3] !== "used").length;
+  return {
+    type: "table",
+    title: `Readings of ${name}: ${rows.length - leftOut} used, ${leftOut} left out`,
+    columns: [
+      { name: READINGS_COLUMNS.first },
+      { name: "time", ...(timeUnit ? { unit: timeUnit } : {}) },
+      { name: "drawdown", ...(lengthUnit ? { unit: lengthUnit } : {}) },
+      { name: READINGS_COLUMNS.last },
+    ],
+    rows: rows.map((r) => r.row),
   };
 }
 
@@ -254,6 +336,8 @@ export function displayToOutput(display: unknown): CellOutput | undefined {
       return fitTableOutput(p.result, p.options);
     case "series":
       return seriesPreviewOutput(p.series, p.options);
+    case "readings":
+      return readingsOutput(p.series, p.options);
     case "chart":
       return chartOutput(p.spec);
     case "json":

@@ -222,6 +222,9 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   show.series = function series(s, options) {
     return display("series", { series: s, options: options });
   };
+  show.readings = function readings(s, options) {
+    return display("readings", { series: s, options: options });
+  };
   show.chart = function chart(spec) {
     return display("chart", { spec: spec });
   };

@@ -26,6 +26,8 @@ export type RegimeHintKind = "unit-slope" | "flat" | "falling" | "doubling";
 export interface RegimeHintOptions {
   /** Unit of the derivative values (the drawdown unit), e.g. "m"; needed for T. */
   readonly lengthUnit: string;
+  /** Unit of the derivative's times, e.g. "min"; when given, the messages state time ranges with it. */
+  readonly timeUnit?: string;
   /** Pumping rate; when given, flat hints carry T = Q/(4 pi level) in m2/d. */
   readonly pumpingRate?: { readonly value: number; readonly unit: string };
   /** Width of the window for the local slope, in log10 cycles; default 0.5. */
@@ -149,6 +151,8 @@ export function regimeHints(
   options: RegimeHintOptions,
 ): RegimeHintResult {
   requireDimension(options.lengthUnit, "length", "the derivative");
+  if (options.timeUnit !== undefined) requireDimension(options.timeUnit, "time", "the derivative's times");
+  const timeUnitText = options.timeUnit === undefined ? "" : ` ${options.timeUnit}`;
   const t = derivative.times;
   const d = derivative.derivative;
   if (t.length !== d.length) throw new DiagnosticError(`times has ${t.length} values but derivative has ${d.length}; give one value per time`);
@@ -210,7 +214,7 @@ export function regimeHints(
         }
       }
       const slope = x.length >= 2 ? lineSlope(x, y) : Number.NaN;
-      const range = `from t = ${fmt(t[start]!)} to ${fmt(t[end]!)}`;
+      const range = `from t = ${fmt(t[start]!)} to ${fmt(t[end]!)}${timeUnitText}`;
       const level = kind === "flat" ? sum / count : null;
       let transmissivity: RegimeHint["transmissivity"] = null;
       let extra = "";

@@ -27,6 +27,7 @@ export const leakageFactorParameter: ParameterDescriptor = {
   description:
     "Distance scale of leakage, sqrt(T b'/K') with b' the aquitard thickness and K' its vertical hydraulic " +
     "conductivity; large B means little leakage.",
+  atBound: { upper: "leakage not detected: within this record the drawdown shows no leakage through the confining layer" },
 };
 
 /** Hantush-Jacob leaky-aquifer model; parameter vector [T (m2/d), S (1), B (m)]. */

@@ -21,6 +21,11 @@ export interface ParameterDescriptor {
   readonly bounds: readonly [number, number];
   /** One sentence for docs, completion and the viewer. */
   readonly description: string;
+  /**
+   * What a fitted estimate at a bound says about the aquifer, in words for a report (for example "leakage not
+   * detected" for a leakage factor at its upper bound); absent where a bound has no such meaning.
+   */
+  readonly atBound?: { readonly lower?: string; readonly upper?: string };
 }
 
 /** What a model is, where it comes from and when it may be used. */

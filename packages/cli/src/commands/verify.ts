@@ -10,6 +10,8 @@ import { EXIT, UsageError, place } from "../errors.js";
 import { cellLine, execute } from "../execute.js";
 import type { Io } from "../io.js";
 import { checkPins, loadDocument, pinChangedMessage } from "../load.js";
+import { referenceProblemLine, referenceProblems } from "../references-check.js";
+import { findReferences } from "@conebook/document";
 import { recordedControlValues, runOverrides } from "../settings.js";
 import { AQUIFER_VERSION } from "../versions.js";
 
@@ -22,8 +24,9 @@ export const VERIFY_HELP = `Usage: conebook verify FILE [--rtol ${DEFAULT_RTOL}]
 
 Reruns the document FILE with the template parameters and control values recorded in it, and compares the
 fresh outputs with the recorded ones: numbers within a relative tolerance, text exactly, tables cell by cell,
-charts by their specification and inline data. Prints each difference with the cell id, its line in FILE, the
-place inside the output, and the recorded and fresh values.
+charts by their specification and inline data. Narrative references ({=CELL/ROW/COLUMN}) must resolve in the
+fresh outputs to the number they resolve to in the recorded ones. Prints each difference with the cell id, its
+line in FILE, the place inside the output, and the recorded and fresh values.
 
 Options:
   --rtol R   relative tolerance for numbers, |a - b| <= R max(|a|, |b|) + A (default ${DEFAULT_RTOL}: runs are
@@ -89,15 +92,19 @@ export async function verifyCommand(argv: readonly string[], io: Io): Promise<nu
   const recorded = recordedOutputs(doc);
   const result = await execute(loaded, runOverrides(recordedControlValues(doc), doc.header.parameters, {}), io);
   const diffs = compareOutputs(recorded, result.outputs, { rtol, atol });
+  const refProblems = referenceProblems(doc, result.outputs, recorded, { rtol, atol });
+  const refCount = doc.cells.reduce((n, c) => n + (c.kind === "narrative" ? findReferences(c.source).length : 0), 0);
+  const refNote = refCount === 0 ? "" : ` and ${refCount} narrative reference${refCount === 1 ? "" : "s"}`;
   const cells = Object.keys(result.outputs).length;
   const outputCount = Object.values(recorded).reduce((n, list: CellOutput[]) => n + list.length, 0);
   const versionNote =
     recordedWith === AQUIFER_VERSION ? `aquifer ${AQUIFER_VERSION}` : `recorded with aquifer ${recordedWith ?? "(unknown version)"}, now ${AQUIFER_VERSION}`;
 
-  if (diffs.length === 0) {
-    io.out(`${loaded.shown}: verified: all ${outputCount} recorded outputs of ${cells} cells match (rtol ${rtol}${atol ? `, atol ${atol}` : ""}; ${versionNote})`);
+  if (diffs.length === 0 && refProblems.length === 0) {
+    io.out(`${loaded.shown}: verified: all ${outputCount} recorded outputs of ${cells} cells${refNote} match (rtol ${rtol}${atol ? `, atol ${atol}` : ""}; ${versionNote})`);
     return EXIT.ok;
   }
+  for (const p of refProblems) io.out(referenceProblemLine(loaded.shown, p));
 
   const byCell = new Map<string, OutputDifference[]>();
   for (const d of diffs) byCell.set(d.cellId, [...(byCell.get(d.cellId) ?? []), d]);
@@ -111,6 +118,8 @@ export async function verifyCommand(argv: readonly string[], io: Io): Promise<nu
   } else if (recordedWith !== AQUIFER_VERSION) {
     io.out(`${loaded.shown}: recorded with aquifer ${recordedWith}, now ${AQUIFER_VERSION}, and results differ`);
   }
-  io.out(`${loaded.shown}: not verified: ${diffs.length} difference${diffs.length === 1 ? "" : "s"} in ${byCell.size} of ${cells} cells (rtol ${rtol}${atol ? `, atol ${atol}` : ""})`);
+  const refText = refProblems.length === 0 ? "" : `${diffs.length === 0 ? "" : "; "}${refProblems.length} narrative reference${refProblems.length === 1 ? "" : "s"} failing`;
+  const diffText = diffs.length === 0 ? "" : `${diffs.length} difference${diffs.length === 1 ? "" : "s"} in ${byCell.size} of ${cells} cells`;
+  io.out(`${loaded.shown}: not verified: ${diffText}${refText} (rtol ${rtol}${atol ? `, atol ${atol}` : ""})`);
   return EXIT.checkFailed;
 }

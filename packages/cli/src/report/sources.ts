@@ -1,0 +1,139 @@
+/**
+ * The report's list of methods and their sources: every method the document's code calls, cited by its
+ * published source, and every rule of thumb it relies on labelled "common practice" with the reason it is
+ * used. A method is found by the library call in the code (`aq.fitModel`, `aq.bourdetDerivative`, ...) or, for
+ * a model, by its id quoted in the code ("theis", "hantush-jacob"), and cited from the model registry.
+ */
+import { getModel, modelIds } from "@conebook/aquifer";
+import type { ConebookDocument } from "@conebook/document";
+
+/** One entry of the list. */
+export interface MethodSource {
+  method: string;
+  /** The published source, or the words "common practice" and why the rule is used. */
+  citation: string;
+  kind: "published" | "common practice";
+}
+
+const ROUNDING: MethodSource = {
+  method: "Rounding of estimates to their uncertainty (this report)",
+  citation: "Particle Data Group (2018), Review of Particle Physics, Phys. Rev. D 98, 030001, Introduction, section 5.3.",
+  kind: "published",
+};
+
+/** Sources by the library call that uses them. */
+const BY_CALL: readonly { call: RegExp; sources: MethodSource[] }[] = [
+  {
+    call: /\baq\.fitModel\b|\baq\.fitSeries\b/,
+    sources: [
+      {
+        method: "Nonlinear least squares (bounded Levenberg-Marquardt)",
+        citation:
+          "Moré, J.J. (1978). The Levenberg-Marquardt algorithm: implementation and theory. In G.A. Watson (ed.), Numerical Analysis, Dundee 1977, Lecture Notes in Mathematics 630, Springer, 105-116.",
+        kind: "published",
+      },
+      {
+        method: "Standard errors from s²(JᵀJ)⁻¹ and 95 % intervals with Student's t for n − p degrees of freedom",
+        citation: "common practice for least-squares estimates with independent errors of equal variance; the intervals hold only if the model is right.",
+        kind: "common practice",
+      },
+      {
+        method: "Akaike information criterion (AIC)",
+        citation: "Akaike, H. (1974). A new look at the statistical model identification. IEEE Transactions on Automatic Control 19(6), 716-723.",
+        kind: "published",
+      },
+      {
+        method: "Bayesian information criterion (BIC)",
+        citation: "Schwarz, G. (1978). Estimating the dimension of a model. The Annals of Statistics 6(2), 461-464.",
+        kind: "published",
+      },
+    ],
+  },
+  {
+    call: /\baq\.compareModels\b/,
+    sources: [
+      {
+        method: "Akaike weights",
+        citation: "Burnham, K.P. and Anderson, D.R. (2002). Model Selection and Multimodel Inference, 2nd ed., Springer, section 2.9.",
+        kind: "published",
+      },
+    ],
+  },
+  {
+    call: /\baq\.cooperJacobLine\b/,
+    sources: [
+      {
+        method: "Cooper-Jacob straight line",
+        citation: getModel("cooper-jacob").source,
+        kind: "published",
+      },
+      {
+        method: "Validity of the straight line: readings with u ≤ 0.01",
+        citation: "common practice: the straight line is within about 0.2 % of the Theis drawdown there (0.05 is also used, within about 2 %).",
+        kind: "common practice",
+      },
+    ],
+  },
+  {
+    call: /\baq\.bourdetDerivative\b/,
+    sources: [
+      {
+        method: "Log derivative ds/d ln t",
+        citation: "Bourdet, D., Ayoub, J.A., Pirard, Y.M. (1989). Use of pressure derivative in well-test interpretation. SPE Formation Evaluation 4(2), 293-302.",
+        kind: "published",
+      },
+      {
+        method: "Smoothing length of the derivative, 0.1 to 0.5 log cycles",
+        citation: "common practice: long enough to damp logger noise, short enough to keep the shape of the response.",
+        kind: "common practice",
+      },
+    ],
+  },
+  {
+    call: /\baq\.regimeHints\b/,
+    sources: [
+      {
+        method: "Reading flow regimes from the log-log slope of the derivative (flat: radial flow, falling: leakage or a recharge boundary)",
+        citation: "common practice: pattern recognition on the derivative of Bourdet et al. (1989); the report states such readings as hints, not verdicts.",
+        kind: "common practice",
+      },
+    ],
+  },
+  {
+    call: /\baq\.leakanceFromLeakageFactor\b/,
+    sources: [
+      {
+        method: "Leakance K'/b' = T/B² from the leakage factor",
+        citation: getModel("hantush-jacob").source,
+        kind: "published",
+      },
+    ],
+  },
+  {
+    call: /\baq\.parseObservationCsv\b/,
+    sources: [
+      {
+        method: "Drawdown as the fall of the water level below its static level before pumping",
+        citation: "common practice: the definition of drawdown; it assumes the static level would have held without pumping.",
+        kind: "common practice",
+      },
+    ],
+  },
+];
+
+/** The methods the document's code uses with their sources, models first, then calls, then the rounding rule. */
+export function methodSources(doc: ConebookDocument): MethodSource[] {
+  const code = doc.cells.filter((c) => c.kind === "code").map((c) => c.source).join("\n");
+  const out: MethodSource[] = [];
+  for (const id of modelIds) {
+    if (!new RegExp(`["'\`]${id}["'\`]`).test(code)) continue;
+    const model = getModel(id);
+    out.push({ method: model.name, citation: model.source, kind: "published" });
+  }
+  for (const { call, sources } of BY_CALL) {
+    if (!call.test(code)) continue;
+    for (const s of sources) if (!out.some((o) => o.method === s.method)) out.push(s);
+  }
+  out.push(ROUNDING);
+  return out;
+}
