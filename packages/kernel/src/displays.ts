@@ -3,7 +3,7 @@
  * document's CellOutput values. Input is decoded wire data from the guest and is checked here; a display that
  * cannot be shown throws DisplayError with a message for the user.
  */
-import { getModel, isModelId } from "@conebook/aquifer";
+import { describeModel, isModelId } from "@conebook/aquifer";
 import type { CellOutput } from "@conebook/document";
 
 /** A display the kernel cannot turn into an output; the message says why and what to pass instead. */
@@ -107,7 +107,7 @@ function statistic(v: unknown): number | null {
 /** The title of a fit table: the model's display name when the result names a registered model. */
 function fitTitle(result: Record<string, unknown>): string {
   const id = pick(result, "modelId");
-  if (typeof id === "string" && isModelId(id)) return `Fitted parameters: ${getModel(id).name}`;
+  if (typeof id === "string" && isModelId(id)) return `Fitted parameters: ${describeModel(id).name}`;
   const model = pick(result, "modelName", "model");
   return typeof model === "string" ? `Fitted parameters: ${model}` : "Fitted parameters";
 }

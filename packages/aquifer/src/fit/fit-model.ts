@@ -3,7 +3,7 @@
  * with shared parameters, with standard errors, 95 % intervals, correlations and information criteria.
  */
 
-import type { DrawdownModel } from "../models/index.js";
+import { modelSpecOf, type DrawdownModel, type ModelSpec } from "../models/index.js";
 import { FitInputError } from "./errors.js";
 import { levenbergMarquardt, type ConvergenceReason, type LeastSquaresProblem } from "./levenberg-marquardt.js";
 import { packWells, weightedResiduals, type ObservationWell, type PackedWell } from "./observations.js";
@@ -90,6 +90,8 @@ export interface WellResiduals {
  */
 export interface FitResult {
   readonly modelId: string;
+  /** The model as a spec (its id, or its id with the geometry options it was made with), for forecasts. */
+  readonly modelSpec: ModelSpec;
   readonly parameters: FitParameter[];
   /** Names of the free parameters: the row and column order of covariance and correlation. */
   readonly freeParameters: string[];
@@ -361,6 +363,7 @@ export function fitModel(options: FitOptions): FitResult {
   });
   return {
     modelId: model.id,
+    modelSpec: modelSpecOf(model),
     parameters,
     freeParameters: freeNames,
     covariance,
