@@ -1,5 +1,5 @@
 /**
- * Display records from a cell (its last expression, `show(...)`, the `show.*` helpers) turned into the
+ * Display records from a cell (each `show.*` or `charts.*` call where it is made, `show(...)`, the last expression) turned into the
  * document's CellOutput values. Input is decoded wire data from the guest and is checked here; a display that
  * cannot be shown throws DisplayError with a message for the user.
  */
