@@ -6,10 +6,10 @@
 import { describeModel, isModelId } from "@conebook/aquifer";
 import type { CellOutput } from "@conebook/document";
 
-/** A display the kernel cannot turn into an output; the message says why and what to pass instead. */
-export class DisplayError extends Error {
-  override readonly name = "DisplayError";
-}
+import { DisplayError } from "./display-error.js";
+import { comparisonOutputs, forecastOutputs, recoveryOutputs, slugTestOutputs, stepTestOutputs } from "./result-tables.js";
+
+export { DisplayError };
 
 type Cell = number | string | null;
 type TableOutput = Extract<CellOutput, { type: "table" }>;
@@ -237,6 +237,29 @@ function valueOutput(payload: Record<string, unknown>): CellOutput {
  * to show (an undefined completion value).
  */
 export function displayToOutput(display: unknown): CellOutput | undefined {
+  return displayToOutputs(display)[0];
+}
+
+/** Results shown as several outputs (tables, then warnings as text), by display kind. */
+const RESULT_DISPLAYS: Readonly<Record<string, (result: unknown, options: unknown) => CellOutput[]>> = {
+  stepTest: stepTestOutputs,
+  slugTest: slugTestOutputs,
+  recovery: recoveryOutputs,
+  forecast: forecastOutputs,
+  comparison: comparisonOutputs,
+};
+
+/** Every output of one display record `{ kind, payload }`: none for an undefined completion value. */
+export function displayToOutputs(display: unknown): CellOutput[] {
+  if (isRecord(display) && typeof display.kind === "string" && Object.hasOwn(RESULT_DISPLAYS, display.kind)) {
+    const p = isRecord(display.payload) ? display.payload : {};
+    return RESULT_DISPLAYS[display.kind]!(p.result, p.options);
+  }
+  const out = singleOutput(display);
+  return out === undefined ? [] : [out];
+}
+
+function singleOutput(display: unknown): CellOutput | undefined {
   if (!isRecord(display) || typeof display.kind !== "string") throw new DisplayError("internal: a display record has no kind");
   const payload = display.payload;
   const p = isRecord(payload) ? payload : {};

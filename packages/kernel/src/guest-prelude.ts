@@ -243,6 +243,21 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   show.json = function json(v) {
     return display("json", { value: v });
   };
+  show.stepTest = function stepTest(result, options) {
+    return display("stepTest", { result: result, options: options });
+  };
+  show.slugTest = function slugTest(result, options) {
+    return display("slugTest", { result: result, options: options });
+  };
+  show.recovery = function recovery(result, options) {
+    return display("recovery", { result: result, options: options });
+  };
+  show.forecast = function forecast(result, options) {
+    return display("forecast", { result: result, options: options });
+  };
+  show.comparison = function comparison(result, options) {
+    return display("comparison", { result: result, options: options });
+  };
   freeze(show);
 
   function control(name, options) {

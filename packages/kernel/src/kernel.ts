@@ -14,7 +14,7 @@ import type { Cell, CellOutput, ChartCell, CodeCell, ConebookDocument, DataCell 
 import { chartDataNames, chartRecords, fillChartData } from "./chart-cells.js";
 import { controlValue, type ControlRecord } from "./controls.js";
 import { dataCellText, DataCellError, parseDataTable, type ReadFile } from "./data-cells.js";
-import { chartOutput, displayToOutput } from "./displays.js";
+import { chartOutput, displayToOutputs } from "./displays.js";
 import { limitsFor, type RunLimits } from "./limits.js";
 import { abortMessage, cellFilename, errorLocation } from "./locations.js";
 import { Sandbox, STACK_LIMIT_BYTES, type GuestError } from "./sandbox.js";
@@ -140,8 +140,8 @@ async function runWithModule(
     seed: doc.header.seed,
     hooks: {
       emit(display) {
-        const out = displayToOutput(display);
-        if (out && current) current.outputs.push(out);
+        const outs = displayToOutputs(display);
+        if (current) current.outputs.push(...outs);
       },
       control(name, opts) {
         const record = controlValue(name, opts, overrides, controlsUsed, current?.cell.id ?? "");
@@ -228,8 +228,7 @@ async function runCell(
       }
       const outcome = sandbox.evalScript(stripped.code, cellFilename(cell.id), limits.timeLimitMs);
       if (!outcome.ok) return guestErrorOutput(cell, outcome.error, limits, stripped.sourceColumn);
-      const out = outcome.value === undefined ? undefined : displayToOutput(outcome.value);
-      if (out) outputs.push(out);
+      if (outcome.value !== undefined) outputs.push(...displayToOutputs(outcome.value));
       return undefined;
     }
     if (cell.kind === "data") {
