@@ -12,7 +12,7 @@
 import type { QuickJSSyncVariant, QuickJSWASMModule } from "quickjs-emscripten-core";
 import type { Cell, CellOutput, ChartCell, CodeCell, ConebookDocument, DataCell } from "@conebook/document";
 import { chartDataNames, chartRecords, fillChartData } from "./chart-cells.js";
-import { controlValue, type ControlRecord } from "./controls.js";
+import { controlValue, type ControlRecord, type RecordedControl } from "./controls.js";
 import { dataCellText, DataCellError, parseDataTable, type ReadFile } from "./data-cells.js";
 import { chartOutput, displayToOutputs } from "./displays.js";
 import { limitsFor, type RunLimits } from "./limits.js";
@@ -37,6 +37,11 @@ export interface RunProgress {
 export interface RunOptions {
   /** Values for `control(name, ...)` calls, by control name; each must lie in the control's range. */
   overrides?: Record<string, number>;
+  /**
+   * Control values recorded in the document, with the default recorded beside each: used where no override is
+   * given and only while the control's default in the code is unchanged (see controls.ts).
+   */
+  recordedControls?: Record<string, RecordedControl>;
   /** Reads a pinned data file beside the document (path relative, forward slashes). */
   readFile?: ReadFile;
   onProgress?: (progress: RunProgress) => void;
@@ -52,6 +57,8 @@ export interface RunResult {
   controlsUsed: ControlRecord[];
   /** Override names that no control asked for (probably misspelt). */
   unusedOverrides: string[];
+  /** What a reader should know about the values used, by cell: e.g. a recorded control value set aside. */
+  notes: { cellId: string; message: string }[];
   limits: RunLimits;
 }
 
@@ -133,6 +140,7 @@ async function runWithModule(
   const status: Record<string, CellStatus> = {};
   const cellTimes: Record<string, number> = {};
   const controlsUsed: ControlRecord[] = [];
+  const notes: { cellId: string; message: string }[] = [];
   let current: { cell: Cell; outputs: CellOutput[] } | undefined;
 
   const sandbox = new Sandbox(mod, {
@@ -144,7 +152,9 @@ async function runWithModule(
         if (current) current.outputs.push(...outs);
       },
       control(name, opts) {
-        const record = controlValue(name, opts, overrides, controlsUsed, current?.cell.id ?? "");
+        const said: string[] = [];
+        const record = controlValue(name, opts, overrides, controlsUsed, current?.cell.id ?? "", options.recordedControls, said);
+        for (const message of said) notes.push({ cellId: record.cellId, message });
         controlsUsed.push(record);
         current?.outputs.push(record.output);
         return record.output.value;
@@ -189,6 +199,7 @@ async function runWithModule(
       timings: { cells: cellTimes, sandboxStartMs, totalMs: performance.now() - tStart },
       controlsUsed,
       unusedOverrides: Object.keys(overrides).filter((k) => !used.has(k)),
+      notes,
       limits,
     },
   };

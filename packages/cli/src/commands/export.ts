@@ -72,7 +72,7 @@ export async function exportCommand(argv: readonly string[], io: Io): Promise<nu
 
   let outputs: Record<string, CellOutput[]>;
   if (args.flags.has("rerun")) {
-    const result = await execute(loaded, runOverrides(recordedControlValues(doc), doc.header.parameters, {}), io);
+    const result = await execute(loaded, runOverrides(doc.header.parameters, {}), io, recordedControlValues(doc));
     outputs = result.outputs;
     for (const [id, s] of Object.entries(result.status)) if (s === "error") io.err(`${loaded.shown}: note: cell ${id} failed; the report shows its error`);
   } else {

@@ -20,9 +20,10 @@ export const RUN_OPTIONS: readonly OptionSpec[] = [
   { name: "write", kind: "flag" },
   { name: "json", kind: "flag" },
   { name: "set", kind: "list" },
+  { name: "fresh", kind: "flag" },
 ];
 
-export const RUN_HELP = `Usage: conebook run FILE [--write] [--json] [--set name=value ...]
+export const RUN_HELP = `Usage: conebook run FILE [--write] [--json] [--fresh] [--set name=value ...]
 
 Runs every cell of the document FILE in order and prints, per cell, its id, kind, status, time and a one-line
 digest of its outputs; errors are shown as file:line:column.
@@ -33,6 +34,8 @@ Options:
   --json              print the result as JSON instead of the summary
   --set name=value    a new value for a template parameter or a control; a number may carry a unit, which is
                       converted (--set rate=8L/s); repeat for several values
+  --fresh             ignore the control values recorded in FILE: every control takes its default in the code
+                      (or --set); with --write the recorded values are replaced
   --help              show this help
 
 Exit codes: 0 every cell ran; 1 a cell failed; 2 usage or input error (nothing written).`;
@@ -52,8 +55,13 @@ export async function runCommand(argv: readonly string[], io: Io): Promise<numbe
   }
   checkParameterUnits(loaded.document, loaded.shown);
   const applied = applySettings(loaded.document, loaded.shown, settings, true);
-  const overrides = runOverrides(recordedControlValues(loaded.document), applied.parameters, applied.controls);
-  const result = await execute(loaded, overrides, io);
+  const overrides = runOverrides(applied.parameters, applied.controls);
+  const result = await execute(loaded, overrides, io, args.flags.has("fresh") ? {} : recordedControlValues(loaded.document));
+  const cellsById = new Map(loaded.document.cells.map((c) => [c.id, c]));
+  for (const note of result.notes) {
+    const cell = cellsById.get(note.cellId);
+    io.err(`${cell ? place(loaded.shown, cellLine(cell)) : loaded.shown}: note: ${note.message}`);
+  }
   checkPendingSettings(loaded.shown, applied.pending, result.unusedOverrides, result.outputs, result.controlsUsed.map((c) => c.output.name));
   unknownChartReference(loaded, result);
   const failed = Object.entries(result.status).filter(([, s]) => s === "error").map(([id]) => id);
@@ -137,6 +145,7 @@ export function runJson(loaded: LoadedDocument, result: RunResult): unknown {
       })),
     controlsUsed: result.controlsUsed.map((c) => ({ cellId: c.cellId, ...c.output })),
     unusedOverrides: result.unusedOverrides,
+    notes: result.notes,
     timings: { totalMs: result.timings.totalMs, sandboxStartMs: result.timings.sandboxStartMs },
   };
 }

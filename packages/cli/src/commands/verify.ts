@@ -87,7 +87,7 @@ export async function verifyCommand(argv: readonly string[], io: Io): Promise<nu
   }
 
   const recorded = recordedOutputs(doc);
-  const result = await execute(loaded, runOverrides(recordedControlValues(doc), doc.header.parameters, {}), io);
+  const result = await execute(loaded, runOverrides(doc.header.parameters, {}), io, recordedControlValues(doc));
   const diffs = compareOutputs(recorded, result.outputs, { rtol, atol });
   const cells = Object.keys(result.outputs).length;
   const outputCount = Object.values(recorded).reduce((n, list: CellOutput[]) => n + list.length, 0);
