@@ -117,6 +117,8 @@ export function applySettings(doc: ConebookDocument, shown: string, settings: re
         );
       }
       p.value = v;
+      if (s.unit !== undefined && s.unit !== p.unit) p.given = `${s.number} ${s.unit}`;
+      else delete p.given;
       continue;
     }
     const control = allowControls ? controls.get(s.name) : undefined;

@@ -72,3 +72,70 @@ describe("recorded control values and edited defaults", () => {
     );
   });
 });
+
+const PARAM_DOC = `---
+conebook: 1
+title: Rate parameter at PW-7, Tarn Gill (invented)
+seed: 3
+parameters:
+  - name: rate
+    value: 900
+    unit: m3/d
+    range: [1, 100000]
+---
+
+\`\`\`ts code:rate
+const Q = control("rate", { value: 900, min: 1, max: 100000, unit: "m3/d" });
+show.value(Q, "m3/d", "rate used");
+\`\`\`
+`;
+
+describe("values typed with a unit", () => {
+  it("keeps the value and unit typed in the header beside the converted value", async () => {
+    await writeFile(join(dir, "param.cone.md"), PARAM_DOC);
+    const run = await conebook("run", "param.cone.md", "--write", "--set", "rate=8L/s");
+    expect(run.code, run.stderr).toBe(0);
+    const text = await readFile(join(dir, "param.cone.md"), "utf8");
+    // 8 L/s = 8e-3 m3/s x 86400 s/d = 691.2 m3/d (NIST SP 811: L = 1e-3 m3, d = 86400 s).
+    expect(text).toMatch(/- name: rate\n\s+value: 691\.2\d*\n\s+unit: m3\/d\n\s+range: \[ ?1, 100000 ?\]\n\s+given: 8 L\/s\n/);
+    const plain = await conebook("run", "param.cone.md", "--write", "--set", "rate=700");
+    expect(plain.code).toBe(0);
+    expect(await readFile(join(dir, "param.cone.md"), "utf8")).not.toContain("given:");
+  });
+});
+
+describe("conebook new from a template with demonstration values", () => {
+  const TEMPLATE = new URL("../../../notebooks/templates/constant-rate-test.cone.md", import.meta.url);
+  // An invented record for the new document: a few depth-to-water readings at observation well TG-OB2.
+  const READINGS = "elapsed_min,depth_to_water_m\n1,8.80\n2,8.86\n5,8.95\n10,9.02\n30,9.13\n100,9.24\n";
+
+  it("refuses, naming each required parameter left out, instead of keeping the demonstration rate and distance", async () => {
+    await writeFile(join(dir, "readings.csv"), READINGS);
+    const out = await conebook("new", TEMPLATE.pathname, "-o", "tg.cone.md", "--set", "static_depth=8.72", "--data", "obs=readings.csv");
+    expect(out.code).toBe(2);
+    for (const name of ["rate", "distance", "site", "observation_well"]) expect(out.stderr).toContain(`parameter "${name}"`);
+    expect(out.stderr).toMatch(/constant-rate-test\.cone\.md:9:\d+: parameter "rate" \(m3\/d\) must be given: the template's 1450 is its demonstration value; add --set rate=VALUE/);
+    expect(out.stderr).not.toContain('parameter "static_depth" (m) must');
+  });
+
+  it("fills the title and narrative placeholders, leaves out the template's own cells and states each kept default", async () => {
+    const out = await conebook(
+      "new", TEMPLATE.pathname, "-o", "tg2.cone.md", "--data", "obs=readings.csv",
+      "--set", "static_depth=8.72", "--set", "rate=250 m3/d", "--set", "distance=15", "--set", "site=Tarn Gill", "--set", "observation_well=TG-OB2",
+    );
+    expect(out.code, out.stderr).toBe(0);
+    expect(out.stderr).toMatch(/warning: parameter "duration" keeps the template's value 2880 min/);
+    const text = await readFile(join(dir, "tg2.cone.md"), "utf8");
+    expect(text).toMatch(/title: "?Constant-rate pumping test at Tarn Gill, observation well TG-OB2"?\n/);
+    expect(text).toContain("Observation well TG-OB2, 15 m from the pumped well, pumped at 250 m3/d for 2880 min;");
+    expect(text).not.toContain("Kestrel Moor");
+    expect(text).not.toContain("template-about");
+    expect(text).toContain("> - parameter `duration` keeps the template's value 2880 min");
+    const titled = await conebook("new", TEMPLATE.pathname, "-o", "tg3.cone.md", "--data", "obs=readings.csv", "--title", "PW-7 test, May",
+      "--set", "static_depth=8.72", "--set", "rate=250", "--set", "distance=15", "--set", "site=Tarn Gill", "--set", "observation_well=TG-OB2", "--set", "duration=100");
+    expect(titled.code, titled.stderr).toBe(0);
+    const third = await readFile(join(dir, "tg3.cone.md"), "utf8");
+    expect(third).toContain("title: PW-7 test, May");
+    expect(third).not.toContain("For the author");
+  });
+});
