@@ -139,3 +139,41 @@ describe("conebook new from a template with demonstration values", () => {
     expect(third).not.toContain("For the author");
   });
 });
+
+describe("a pinned data file that changed", () => {
+  const CSV = "t_s,s_m\n60,0.31\n120,0.52\n";
+  const doc = (sha: string) => `---
+conebook: 1
+title: Pinned record at PW-7 (invented)
+seed: 3
+---
+
+\`\`\`csv data:record name=obs file=ob7.csv sha256=${sha}
+\`\`\`
+
+\`\`\`ts code:count
+obs.rows.length
+\`\`\`
+`;
+
+  it("makes run exit 1, as docs/cli.md says, and pin re-pins it printing both digests", async () => {
+    const { sha256Hex, utf8Bytes } = await import("@conebook/document");
+    const before = sha256Hex(utf8Bytes(CSV));
+    await writeFile(join(dir, "ob7.csv"), CSV);
+    await writeFile(join(dir, "pinned.cone.md"), doc(before));
+    expect((await conebook("run", "pinned.cone.md")).code).toBe(0);
+    const edited = `${CSV}300,0.80\n`;
+    const after = sha256Hex(utf8Bytes(edited));
+    await writeFile(join(dir, "ob7.csv"), edited);
+    const run = await conebook("run", "pinned.cone.md");
+    expect(run.code).toBe(1);
+    expect(run.stderr).toContain(`pinned.cone.md:7:1: data file ob7.csv changed since it was pinned: the document pins SHA-256 ${before}, the file now has ${after}`);
+    const docs = await readFile(new URL("../../../docs/cli.md", import.meta.url), "utf8");
+    expect(docs).toMatch(/\| 1 \| a check failed: .*a data file changed since it was pinned/);
+    const pin = await conebook("pin", "pinned.cone.md");
+    expect(pin.code).toBe(0);
+    expect(pin.stdout).toContain(`pinned.cone.md:7: re-pinned data "obs" (ob7.csv): SHA-256 was ${before}, now ${after}`);
+    expect(await readFile(join(dir, "pinned.cone.md"), "utf8")).toBe(doc(after));
+    expect((await conebook("run", "pinned.cone.md")).code).toBe(0);
+  });
+});

@@ -49,9 +49,9 @@ export async function runCommand(argv: readonly string[], io: Io): Promise<numbe
   for (const w of loaded.warnings) io.err(`${place(w.file ?? loaded.shown, w.line, w.column)}: warning: ${w.message}`);
   const { changed } = await checkPins(loaded);
   if (changed.length > 0) {
-    throw new InputError(
-      `${changed.map((c) => pinChangedMessage(loaded.shown, c)).join("\n")}\nRestore the file, or pin the new bytes if the change is intended.`,
-    );
+    for (const c of changed) io.err(pinChangedMessage(loaded.shown, c));
+    io.err(`${loaded.shown} was not run: restore the file, or if the change is intended re-pin it with conebook pin ${loaded.shown}`);
+    return EXIT.checkFailed;
   }
   checkParameterUnits(loaded.document, loaded.shown);
   const applied = applySettings(loaded.document, loaded.shown, settings, true);

@@ -82,7 +82,7 @@ export async function verifyCommand(argv: readonly string[], io: Io): Promise<nu
   const { changed } = await checkPins(loaded);
   if (changed.length > 0) {
     for (const c of changed) io.out(pinChangedMessage(loaded.shown, c));
-    io.out(`${loaded.shown}: not verified: ${changed.length} data file${changed.length === 1 ? "" : "s"} changed, so the recorded outputs no longer describe the data; restore the file or rerun with --write after pinning it`);
+    io.out(`${loaded.shown}: not verified: ${changed.length} data file${changed.length === 1 ? "" : "s"} changed, so the recorded outputs no longer describe the data; restore the file, or if the change is intended re-pin it with conebook pin ${loaded.shown} and rerun with --write`);
     return EXIT.checkFailed;
   }
 
