@@ -177,3 +177,31 @@ obs.rows.length
     expect((await conebook("run", "pinned.cone.md")).code).toBe(0);
   });
 });
+
+describe("a code fence left open before the next cell", () => {
+  it("warns at the opening fence and the run reports the cell's error there, not a syntax error at the next marker", async () => {
+    const text = `---
+conebook: 1
+title: Unclosed fence (invented)
+seed: 3
+---
+
+\`\`\`ts code:first
+const a = 2;
+
+[narrative:middle]: #
+
+Some prose.
+
+\`\`\`ts code:second
+a * 3
+\`\`\`
+`;
+    await writeFile(join(dir, "unclosed.cone.md"), text);
+    const run = await conebook("run", "unclosed.cone.md");
+    expect(run.code).toBe(1);
+    expect(run.stderr).toContain("unclosed.cone.md:7:1: warning: this code fence is not closed before line 10, which starts another cell ([narrative:middle]: #)");
+    expect(run.stderr).toContain("unclosed.cone.md:7: error in cell first: the fence of cell first (line 7) is not closed before line 10, which starts another cell ([narrative:middle]: #)");
+    expect(run.stderr).not.toContain("SyntaxError");
+  });
+});

@@ -10,7 +10,7 @@
  * `not-run`. Each run starts from a new sandbox, which makes two runs of one document identical.
  */
 import type { QuickJSSyncVariant, QuickJSWASMModule } from "quickjs-emscripten-core";
-import type { Cell, CellOutput, ChartCell, CodeCell, ConebookDocument, DataCell } from "@conebook/document";
+import { cellStartInside, type Cell, type CellOutput, type ChartCell, type CodeCell, type ConebookDocument, type DataCell } from "@conebook/document";
 import { chartDataNames, chartRecords, fillChartData } from "./chart-cells.js";
 import { controlValue, type ControlRecord, type RecordedControl } from "./controls.js";
 import { dataCellText, DataCellError, parseDataTable, type ReadFile } from "./data-cells.js";
@@ -229,6 +229,17 @@ async function runCell(
   const fileLine = (line: number) => cell.sourceStart.line + line - 1;
   const fileColumn = (line: number, column: number) => (line === 1 ? cell.sourceStart.column + column - 1 : column);
   try {
+    const inside = cell.kind === "code" || (cell.kind === "data" && !cell.file) ? cellStartInside(cell.source) : undefined;
+    if (cell.kind === "code" || cell.kind === "data") {
+      if (inside) {
+        const fenceLine = cell.origin?.start.line ?? cell.sourceStart.line - 1;
+        return {
+          type: "error",
+          message: `the fence of cell ${cell.id} (line ${fenceLine}) is not closed before line ${fileLine(inside.line)}, which starts another cell (${inside.text}); add the closing fence before line ${fileLine(inside.line)}`,
+          line: fenceLine,
+        };
+      }
+    }
     if (cell.kind === "code") {
       let stripped;
       try {
