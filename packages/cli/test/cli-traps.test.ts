@@ -205,3 +205,32 @@ a * 3
     expect(run.stderr).not.toContain("SyntaxError");
   });
 });
+
+describe("CSV problems found at run time", () => {
+  it("names the data file and its line, beside the code line that read it", async () => {
+    const { sha256Hex, utf8Bytes } = await import("@conebook/document");
+    // Line 1 is the header; the reading on line 4 is missing.
+    const CSV = "elapsed_min,depth_to_water_m\n1,8.80\n2,8.86\n5,\n10,9.02\n";
+    await writeFile(join(dir, "obs-gap.csv"), CSV);
+    await writeFile(join(dir, "gap.cone.md"), `---
+conebook: 1
+title: A gap in the record (invented)
+seed: 3
+---
+
+\`\`\`csv data:record name=obs file=obs-gap.csv sha256=${sha256Hex(utf8Bytes(CSV))}
+\`\`\`
+
+\`\`\`ts code:load
+const imported = aq.parseObservationCsv(obs.csv, {
+  timeColumn: "elapsed_min", valueColumn: "depth_to_water_m", timeUnit: "min", kind: "depth-to-water", staticLevel: 8.72,
+  lengthUnit: "m", radius: { value: 15, unit: "m" }, pumpingRate: { value: 250, unit: "m3/d" },
+});
+\`\`\`
+`);
+    const run = await conebook("run", "gap.cone.md");
+    expect(run.code).toBe(1);
+    expect(run.stderr).toMatch(/gap\.cone\.md:11:\d+: error in cell load: /);
+    expect(run.stderr).toContain("obs-gap.csv:4: column 'depth_to_water_m' (2): the level is missing. Fix:");
+  });
+});

@@ -141,6 +141,8 @@ async function runWithModule(
   const cellTimes: Record<string, number> = {};
   const controlsUsed: ControlRecord[] = [];
   const notes: { cellId: string; message: string }[] = [];
+  /** The CSV text of each data cell read so far, with where its lines are (for CSV errors found later). */
+  const dataTexts = new Map<string, (line: number) => string>();
   let current: { cell: Cell; outputs: CellOutput[] } | undefined;
 
   const sandbox = new Sandbox(mod, {
@@ -150,6 +152,9 @@ async function runWithModule(
       emit(display) {
         const outs = displayToOutputs(display);
         if (current) current.outputs.push(...outs);
+      },
+      placeOfText(text) {
+        return dataTexts.get(text);
       },
       control(name, opts) {
         const said: string[] = [];
@@ -174,7 +179,7 @@ async function runWithModule(
         status[cell.id] = "not-run";
       } else {
         current = { cell, outputs: [] };
-        const error = await runCell(sandbox, cell, limits, options.readFile, current.outputs);
+        const error = await runCell(sandbox, cell, limits, options.readFile, current.outputs, dataTexts);
         outputs[cell.id] = current.outputs;
         if (error) {
           current.outputs.push(error);
@@ -225,6 +230,7 @@ async function runCell(
   limits: RunLimits,
   readFile: ReadFile | undefined,
   outputs: CellOutput[],
+  dataTexts: Map<string, (line: number) => string>,
 ): Promise<ErrorOutput | undefined> {
   const fileLine = (line: number) => cell.sourceStart.line + line - 1;
   const fileColumn = (line: number, column: number) => (line === 1 ? cell.sourceStart.column + column - 1 : column);
@@ -258,6 +264,8 @@ async function runCell(
         return { type: "error", message: `data name "${cell.name}" is not a valid name; use letters, digits and _ (not starting with a digit)`, line: cell.sourceStart.line };
       }
       const text = await dataCellText(cell, readFile);
+      const path = cell.file?.path;
+      dataTexts.set(text, path !== undefined ? (line) => `${path}:${line}` : (line) => `data cell ${cell.id}, line ${fileLine(line)} of the document`);
       const table = parseDataTable(cell.name, text, cell.file ? 1 : cell.sourceStart.line);
       const outcome = sandbox.defineTable(table, limits.timeLimitMs);
       if (!outcome.ok) return guestErrorOutput(cell, outcome.error, limits);
