@@ -234,3 +234,30 @@ const imported = aq.parseObservationCsv(obs.csv, {
     expect(run.stderr).toContain("obs-gap.csv:4: column 'depth_to_water_m' (2): the level is missing. Fix:");
   });
 });
+
+describe("the terminal summary", () => {
+  it("shows the estimates of a fit with their 95 % intervals, and every table in full with --show", async () => {
+    await writeFile(join(dir, "fit.cone.md"), `---
+conebook: 1
+title: Theis fit at TG-OB2 (invented)
+seed: 3
+---
+
+\`\`\`ts code:fit
+const t = [0.001, 0.003, 0.01, 0.03, 0.1, 0.3, 1];
+const s = aq.drawdown("theis", { T: 250, S: 2e-4 }, { r: 30, Q: 900 }, t).map((v, i) => v * (1 + 0.004 * Math.sin(i)));
+const fit = aq.fitModel({ model: "theis", wells: [{ name: "TG-OB2", geometry: { r: 30, Q: 900 }, t, s }] });
+show.fit(fit, { title: "Theis (1935) fit to the record of observation well TG-OB2, 1-day test" });
+show.table({ t, s }, { title: "Drawdown readings used for the fit at TG-OB2", units: { t: "d", s: "m" } });
+\`\`\`
+`);
+    const run = await conebook("run", "fit.cone.md");
+    expect(run.code, run.stderr).toBe(0);
+    expect(run.stdout).toContain("    Theis (1935) fit to the record of observation well TG-OB2, 1-day test\n");
+    expect(run.stdout).toMatch(/\n {6}T \(transmissivity\) = 2\d\d\.\d+ m2\/d \(95 %: 2\d\d\.\d+ to 2\d\d\.\d+\)\n/);
+    expect(run.stdout).toMatch(/\n {6}S \(storativity\) = 0\.000\d+ \(95 %: /);
+    const shown = await conebook("run", "fit.cone.md", "--show");
+    expect(shown.stdout).toContain("    Drawdown readings used for the fit at TG-OB2\n    t (d)  s (m)");
+    expect(shown.stdout).toMatch(/\n {4}parameter +estimate +standard error +95 % low +95 % high +unit\n/);
+  });
+});

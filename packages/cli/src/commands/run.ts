@@ -10,7 +10,7 @@ import { onePositional, parseArgs, type OptionSpec } from "../args.js";
 import { writeFileAtomic } from "../atomic-write.js";
 import { EXIT, InputError, place } from "../errors.js";
 import { cellLine, execute } from "../execute.js";
-import { outputsDigest } from "../format.js";
+import { headlineLines, outputsDigest, tableLines } from "../format.js";
 import type { Io } from "../io.js";
 import { checkPins, loadDocument, pinChangedMessage, type LoadedDocument } from "../load.js";
 import { applySettings, checkParameterUnits, checkPendingSettings, parseSettings, recordedControlValues, runOverrides } from "../settings.js";
@@ -21,9 +21,10 @@ export const RUN_OPTIONS: readonly OptionSpec[] = [
   { name: "json", kind: "flag" },
   { name: "set", kind: "list" },
   { name: "fresh", kind: "flag" },
+  { name: "show", kind: "flag" },
 ];
 
-export const RUN_HELP = `Usage: conebook run FILE [--write] [--json] [--fresh] [--set name=value ...]
+export const RUN_HELP = `Usage: conebook run FILE [--write] [--json] [--show] [--fresh] [--set name=value ...]
 
 Runs every cell of the document FILE in order and prints, per cell, its id, kind, status, time and a one-line
 digest of its outputs; errors are shown as file:line:column.
@@ -32,6 +33,8 @@ Options:
   --write             record the outputs (and the values used) into FILE; the file is replaced atomically and
                       only when every cell ran without error
   --json              print the result as JSON instead of the summary
+  --show              print every table in full below its cell (the summary shows the estimates of fits and
+                      tests, with their 95 % intervals, in any case)
   --set name=value    a new value for a template parameter or a control; a number may carry a unit, which is
                       converted (--set rate=8L/s); repeat for several values
   --fresh             ignore the control values recorded in FILE: every control takes its default in the code
@@ -67,7 +70,7 @@ export async function runCommand(argv: readonly string[], io: Io): Promise<numbe
   const failed = Object.entries(result.status).filter(([, s]) => s === "error").map(([id]) => id);
 
   if (args.flags.has("json")) io.out(JSON.stringify(runJson(loaded, result), null, 2));
-  else printSummary(loaded, result, io);
+  else printSummary(loaded, result, io, args.flags.has("show"));
 
   if (args.flags.has("write")) {
     if (failed.length > 0) {
@@ -102,7 +105,7 @@ function unknownChartReference(loaded: LoadedDocument, result: RunResult): void 
   }
 }
 
-function printSummary(loaded: LoadedDocument, result: RunResult, io: Io): void {
+function printSummary(loaded: LoadedDocument, result: RunResult, io: Io, full: boolean): void {
   const executable = loaded.document.cells.filter((c) => c.kind !== "narrative");
   const idWidth = Math.min(24, Math.max(4, ...executable.map((c) => c.id.length)));
   io.out(`${loaded.shown}: ${loaded.document.header.title}`);
@@ -114,6 +117,10 @@ function printSummary(loaded: LoadedDocument, result: RunResult, io: Io): void {
     let digest = outputsDigest(outputs);
     if (cell.kind === "data") digest = cell.file ? `data "${cell.name}" from ${cell.file.path}` : `data "${cell.name}" (inline)`;
     io.out(`  ${status.padEnd(7)} ${cell.kind.padEnd(5)} ${cell.id.padEnd(idWidth)} ${`${ms.toFixed(0)} ms`.padStart(8)}  ${digest}`);
+    for (const o of outputs) {
+      if (full && o.type === "table") for (const line of tableLines(o)) io.out(line);
+      else for (const line of headlineLines(o)) io.out(line);
+    }
     for (const o of outputs) {
       if (o.type === "error") errors.push(`${place(loaded.shown, o.line ?? cellLine(cell), o.line === undefined ? undefined : o.column)}: error in cell ${cell.id}: ${o.message}`);
     }
