@@ -256,7 +256,12 @@ export function displayToOutputs(display: unknown): CellOutput[] {
     return RESULT_DISPLAYS[display.kind]!(p.result, p.options);
   }
   const out = singleOutput(display);
-  return out === undefined ? [] : [out];
+  if (out === undefined) return [];
+  if (isRecord(display) && display.kind === "fit" && isRecord(display.payload) && isRecord(display.payload.result)) {
+    const notes = display.payload.result.plausibility;
+    if (Array.isArray(notes)) return [out, ...notes.filter((n): n is string => typeof n === "string").map((text) => ({ type: "text" as const, text }))];
+  }
+  return [out];
 }
 
 function singleOutput(display: unknown): CellOutput | undefined {

@@ -93,4 +93,13 @@ describe("result displays with units", () => {
     expect(columnUnits(comparison).RMSE).toBe("mm");
     expect(outs).toContainEqual({ type: "text", text: hostComparison.caution });
   });
+
+  it("shows a fit's plausibility notes as text after its table", async () => {
+    // Late data of a water-table aquifer (storage 0.05) fitted as confined: S is outside the confined range.
+    const t = Array.from({ length: 20 }, (_, i) => 0.001 * Math.pow(10, (3 * i) / 19));
+    const s = Array.from(getModel("theis").drawdown([250, 0.05], { r: 30, Q: 900 }, t));
+    const outs = await outputsOf(`show.fit(aq.fitModel({ model: "theis", wells: [{ name: "OB", geometry: { r: 30, Q: 900 }, t: ${js(t)}, s: ${js(s)} }] }))`);
+    expect(outs.map((o) => o.type)).toEqual(["table", "text"]);
+    expect((outs[1] as { text: string }).text).toMatch(/^Plausibility: S = 0\.05 is outside the storativities of confined aquifers usually met/);
+  });
 });

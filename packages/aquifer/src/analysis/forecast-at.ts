@@ -157,6 +157,16 @@ export function forecastAt(options: ForecastAtOptions): ForecastAtResult {
     uncertainty: options.uncertainty ?? "none",
   });
   const inUnit = (values: Float64Array | null) => (values === null ? null : convertArray(values, "m", lengthUnit));
+  const notes = [...result.notes];
+  const spec = (model as { spec?: Record<string, unknown> }).spec;
+  const thickness = typeof spec?.saturatedThickness === "number" ? spec.saturatedThickness : typeof spec?.aquiferThickness === "number" ? spec.aquiferThickness : undefined;
+  const largest = Math.max(...result.points.flatMap((p) => Array.from(p.drawdown)));
+  if (thickness !== undefined && largest > thickness) {
+    notes.push(
+      `Plausibility: the forecast drawdown reaches ${Number(largest.toPrecision(3))} m, more than the saturated thickness ${thickness} m: the aquifer ` +
+        "would be dewatered there and the model no longer applies; the forecast overstates what can happen.",
+    );
+  }
   return {
     modelId: model.id,
     method: result.method,
@@ -176,6 +186,6 @@ export function forecastAt(options: ForecastAtOptions): ForecastAtResult {
     uncertainParameters: result.uncertainParameters,
     samples: result.samples,
     seed: result.seed,
-    notes: result.notes,
+    notes,
   };
 }

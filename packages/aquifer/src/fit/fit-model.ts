@@ -8,6 +8,7 @@ import { FitInputError } from "./errors.js";
 import { levenbergMarquardt, type ConvergenceReason, type LeastSquaresProblem } from "./levenberg-marquardt.js";
 import { packWells, weightedResiduals, type ObservationWell, type PackedWell } from "./observations.js";
 import { buildParameterSpace, toFitSpace, toNative, type ParameterSpace } from "./parameter-space.js";
+import { plausibilityNotes } from "./plausibility.js";
 import { deriveStartValues, type StartMethod } from "./start-values.js";
 import { fitSpaceCovariance, informationCriteria } from "./statistics.js";
 import { studentTQuantile } from "./student-t.js";
@@ -128,6 +129,8 @@ export interface FitResult {
   readonly jacobianMethod: JacobianMethod;
   readonly start: { readonly values: Record<string, number>; readonly method: StartMethod; readonly notes: string[] };
   readonly warnings: string[];
+  /** Estimates far outside the ranges usually met, or drawdown beyond the saturated thickness (fit/plausibility.ts). */
+  readonly plausibility: string[];
 }
 
 function formatNumber(v: number): string {
@@ -387,5 +390,6 @@ export function fitModel(options: FitOptions): FitResult {
     jacobianMethod: method,
     start: { values: startRecord, method: start.method, notes: start.notes },
     warnings,
+    plausibility: plausibilityNotes(model, Object.fromEntries(parameters.map((q) => [q.name, q.estimate])), Math.max(...residuals.flatMap((w) => Array.from(w.observed)))),
   };
 }
