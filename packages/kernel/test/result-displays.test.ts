@@ -103,3 +103,16 @@ describe("result displays with units", () => {
     expect((outs[1] as { text: string }).text).toMatch(/^Plausibility: S = 0\.05 is outside the storativities of confined aquifers usually met/);
   });
 });
+
+describe("CSV problems in inline data", () => {
+  it("are restated at the document line of the inline row", async () => {
+    const doc = makeDoc([
+      { kind: "data", name: "obs", source: "elapsed_min,depth_to_water_m\n1,8.80\n2,\n5,8.95" },
+      `aq.parseObservationCsv(obs.csv, { timeColumn: "elapsed_min", valueColumn: "depth_to_water_m", timeUnit: "min", kind: "depth-to-water", staticLevel: 8.7, lengthUnit: "m", radius: { value: 15, unit: "m" }, pumpingRate: { value: 250, unit: "m3/d" } })`,
+    ]);
+    const r = await kernel.runDocument(doc);
+    const error = r.outputs.c2![0] as { type: string; message: string };
+    // Line 3 of the CSV text is the row with the missing reading; the data cell's source starts at file line 5.
+    expect(error.message).toContain(`data cell c1, line ${doc.cells[0]!.sourceStart.line + 2} of the document: column 'depth_to_water_m' (2): the level is missing`);
+  });
+});
