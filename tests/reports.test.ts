@@ -75,13 +75,23 @@ beforeAll(async () => {
     "static_depth=8.2m",
     "--set",
     "duration=1440min",
+    "--set",
+    "site=Hollin Marsh (invented)",
+    "--set",
+    "observation_well=HM-OB3",
     "--data",
     `obs=${join(ROOT, "tests/fixtures/report/hollin-marsh-hm-ob3.csv")}`,
   );
   expect(made.code, made.err).toBe(0);
-  // As an analyst would: replace the template's test information with this test's.
+  // As an analyst would: read the note for the author and delete it, then replace the template's test
+  // information with this test's.
   const madePath = join(dir, "hollin-marsh.cone.md");
-  const text = await readFile(madePath, "utf8");
+  const made0 = await readFile(madePath, "utf8");
+  const noteStart = made0.indexOf("[narrative:author-notes]: #");
+  const noteEnd = made0.indexOf("\n[", noteStart + 1);
+  expect(noteStart, "conebook new writes a note for the author").toBeGreaterThan(0);
+  expect(made0.slice(noteStart, noteEnd)).toContain("the test information in the header");
+  const text = made0.slice(0, noteStart) + made0.slice(noteEnd + 1);
   const start = text.indexOf("testInformation:\n");
   const end = text.indexOf("\n---\n", start);
   expect(start).toBeGreaterThan(0);

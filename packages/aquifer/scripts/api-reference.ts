@@ -13,8 +13,7 @@ import { readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import ts from "typescript";
-import type { ModelDescriptor } from "../src/models/model.js";
-import { modelIds, models } from "../src/models/registry.js";
+import { describeModel, modelIds, type ModelDescription } from "../src/models/registry.js";
 
 /** Root of the repository (three levels above this script). */
 export const REPO_ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../../..");
@@ -542,8 +541,20 @@ function renderEntry(entry: ApiEntry): string[] {
 }
 
 /** One registry model: citation, parameter table, assumptions, validity and cautions. */
-function renderModel(model: ModelDescriptor): string[] {
+function renderModel(model: ModelDescription): string[] {
   const lines: string[] = [`### \`${model.id}\`: ${model.name}`, "", `Source: ${oneLine(model.source)}`, ""];
+  if (model.options.length > 0) {
+    lines.push(
+      `Bound to geometry: give it as \`{ id: "${model.id}", ...options }\` wherever a model is asked for.`,
+      "",
+      "| option | base unit | required | default | description |",
+      "| --- | --- | --- | --- | --- |",
+    );
+    for (const o of model.options) {
+      lines.push(`| \`${cell(o.name)}\` | ${cell(formatUnit(o.unit))} | ${o.required ? "yes" : "no"} | ${o.default === undefined ? "" : String(o.default)} | ${cell(o.description)} |`);
+    }
+    lines.push("");
+  }
   lines.push("| parameter | name | base unit | bounds | fitted as | description |");
   lines.push("| --- | --- | --- | --- | --- | --- |");
   for (const parameter of model.parameters) {
@@ -577,7 +588,7 @@ function areaTitle(area: string): string {
  * top comment, then each export), then the registry's models. Deterministic: no dates, no absolute paths,
  * no line numbers, so the text changes only when the API, its docs or the registry change.
  */
-export function renderApiReference(api: CollectedApi, registry: readonly ModelDescriptor[]): string {
+export function renderApiReference(api: CollectedApi, registry: readonly ModelDescription[]): string {
   const areas: string[] = [];
   for (const entry of api.entries) if (!areas.includes(entry.area)) areas.push(entry.area);
   const modelsHeading = "Models in the registry";
@@ -614,7 +625,7 @@ export function renderApiReference(api: CollectedApi, registry: readonly ModelDe
   lines.push(
     `## ${modelsHeading}`,
     "",
-    "Read from the descriptors of `models` (`packages/aquifer/src/models/registry.ts`), in registry order. Bounds " +
+    "Read from `describeModel(id)` (`packages/aquifer/src/models/registry.ts`), in registry order. Bounds " +
       "are the widest plausible values in base units and the default fitting bounds; a parameter that must be " +
       "positive is fitted as ln(value).",
     "",
@@ -624,8 +635,8 @@ export function renderApiReference(api: CollectedApi, registry: readonly ModelDe
 }
 
 /** The registered models' descriptors in registry order. */
-export function registryDescriptors(): ModelDescriptor[] {
-  return modelIds.map((id) => models[id]);
+export function registryDescriptors(): ModelDescription[] {
+  return modelIds.map((id) => describeModel(id));
 }
 
 /** Builds the program, collects the API and renders the reference: what the script writes. */

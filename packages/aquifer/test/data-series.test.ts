@@ -47,7 +47,7 @@ describe("building an observation series", () => {
 
   it("refuses units of the wrong dimension and unknown units, naming the field", () => {
     expect(() => createObservationSeries({ ...ob2, timeUnit: "m", radius: { value: 25, unit: "mins" } })).toThrow(
-      /timeUnit: expected a time, in a unit such as 'd', got 'm' \(a length\)\n- radius.unit: unknown unit 'mins' — did you mean 'min'\?/,
+      /timeUnit: expected a time, in a unit such as 'd', got 'm' \(a length\)\n- radius.unit: unknown unit 'mins'; for a length try 'in', 'm', 'mm'/,
     );
     expect(() => createObservationSeries({ ...ob2, pumpingRate: { value: 12, unit: "L" } })).toThrow(
       "pumpingRate.unit: expected a discharge, in a unit such as 'm3/d', got 'L' (a volume)",

@@ -1,7 +1,12 @@
 import { describe, expect, it } from "vitest";
 import {
+  ModelInputError,
   UnknownModelError,
   cooperJacobModel,
+  describeModel,
+  neumanModel,
+  papadopulosCooperModel,
+  partialPenetrationModel,
   getModel,
   hantushJacobModel,
   modelIds,
@@ -15,25 +20,62 @@ import {
 const UNITS = new Set(["m2/d", "1", "m", "1/d"]);
 
 describe("model registry and descriptors", () => {
-  it("registers the five fixed-geometry models by id", () => {
-    expect([...modelIds].sort()).toEqual(["cooper-jacob", "hantush-aquitard-storage", "hantush-jacob", "theis", "thiem"]);
+  it("registers every drawdown model of the library by id, the geometry-bound ones among them", () => {
+    expect([...modelIds].sort()).toEqual([
+      "cooper-jacob", "hantush-aquitard-storage", "hantush-jacob", "hantush-partial-penetration", "neuman", "papadopulos-cooper", "theis", "thiem",
+    ]);
     expect(getModel("theis")).toBe(theisModel);
     expect(getModel("cooper-jacob")).toBe(cooperJacobModel);
     expect(getModel("hantush-jacob")).toBe(hantushJacobModel);
     expect(getModel("thiem")).toBe(thiemModel);
-    for (const id of modelIds) expect(models[id].id).toBe(id);
+    for (const id of modelIds) expect(describeModel(id).id).toBe(id);
   });
 
   it("names the known ids when asked for an unknown one", () => {
     expect(() => getModel("theiss")).toThrow(UnknownModelError);
     expect(() => getModel("theiss")).toThrow(
-      'Unknown model "theiss". Known models: theis, cooper-jacob, hantush-jacob, hantush-aquitard-storage, thiem.',
+      'Unknown model "theiss". Known models: theis, cooper-jacob, hantush-jacob, hantush-aquitard-storage, thiem, neuman, papadopulos-cooper, hantush-partial-penetration.',
     );
     expect(() => getModel("toString")).toThrow(UnknownModelError);
   });
 
+  it("builds a geometry-bound model from its id and options, the same drawdown as its factory", () => {
+    const t = [0.01, 0.1, 1];
+    const g = { r: 15, Q: 500 };
+    const neuman = getModel({ id: "neuman", saturatedThickness: 12 });
+    expect(Array.from(neuman.drawdown([200, 1e-3, 0.1, 0.2], g, t))).toEqual(Array.from(neumanModel(12).drawdown([200, 1e-3, 0.1, 0.2], g, t)));
+    expect(neuman.spec).toEqual({ id: "neuman", saturatedThickness: 12 });
+    const pc = getModel({ id: "papadopulos-cooper", casingRadius: { value: 6, unit: "in" }, wellRadius: 0.2, skin: 1 });
+    expect(Array.from(pc.drawdown([200, 1e-4], g, t))).toEqual(Array.from(papadopulosCooperModel({ rc: 0.1524, rw: 0.2, skin: 1 }).drawdown([200, 1e-4], g, t)));
+    const pp = getModel({ id: "hantush-partial-penetration", aquiferThickness: 20, screenTop: 0, screenBottom: 8, piezometerDepth: 15, anisotropy: 0.3 });
+    expect(pp.parameters.map((p) => p.name)).toEqual(["T", "S"]);
+    const factory = partialPenetrationModel({ thickness: 20, screenTop: 0, screenBottom: 8, observation: { depth: 15 }, anisotropy: 0.3 });
+    expect(Array.from(pp.drawdown([200, 1e-4], g, t))).toEqual(Array.from(factory.drawdown([200, 1e-4], g, t)));
+    const screened = getModel({ id: "hantush-partial-penetration", aquiferThickness: 20, screenTop: 0, screenBottom: 8, observationScreenTop: 10, observationScreenBottom: 14 });
+    expect(screened.parameters.map((p) => p.name)).toEqual(["T", "S", "KzKr"]);
+  });
+
+  it("refuses a geometry-bound model without its options, naming what is missing and how to give it", () => {
+    expect(() => getModel("neuman")).toThrow(ModelInputError);
+    expect(() => getModel("neuman")).toThrow(/needs saturatedThickness \(m\); give it as \{ id: "neuman", saturatedThickness: \.\.\. \}/);
+    expect(() => getModel({ id: "papadopulos-cooper", casingRadius: 0.1 })).toThrow(/needs wellRadius \(m\)/);
+    expect(() => getModel({ id: "neuman", saturatedThickness: 12, thickness: 3 })).toThrow(/has no option "thickness"; its options are saturatedThickness \(m, required\)/);
+    expect(() => getModel({ id: "neuman", saturatedThickness: { value: 12, unit: "s" } })).toThrow(/option saturatedThickness: cannot convert a time/);
+    expect(() => getModel({ id: "neuman", saturatedThickness: "12" })).toThrow(/must be a number in m or \{ value, unit \}/);
+    expect(() => getModel({ id: "theis", saturatedThickness: 12 })).toThrow(/takes no options/);
+    expect(() => getModel({ id: "hantush-partial-penetration", aquiferThickness: 20, screenTop: 0, screenBottom: 8 })).toThrow(/say where the drawdown is observed/);
+  });
+
+  it("says that leaky partial penetration is not available and names the nearest models", () => {
+    const nearest = /not available.*Nearest available models: "hantush-partial-penetration" .*"hantush-jacob"/s;
+    expect(() => getModel("hantush-leaky-partial-penetration")).toThrow(UnknownModelError);
+    expect(() => getModel("hantush-leaky-partial-penetration")).toThrow(nearest);
+    expect(() => getModel({ id: "hantush-jacob", aquiferThickness: 20, screenTop: 0, screenBottom: 5, piezometerDepth: 3 })).toThrow(nearest);
+    expect(() => getModel({ id: "hantush-partial-penetration", aquiferThickness: 20, screenTop: 0, screenBottom: 5, piezometerDepth: 3, B: 400 })).toThrow(nearest);
+  });
+
   it.each(modelIds)("describes %s with author, year, source, assumptions, validity, cautions and parameters", (id) => {
-    const m: DrawdownModel = models[id];
+    const m = describeModel(id);
     const year = /\((\d{4})\)/.exec(m.name)?.[1];
     expect(year, m.name).toBeDefined();
     expect(m.source).toContain(`(${year})`);
@@ -48,8 +90,8 @@ describe("model registry and descriptors", () => {
     }
   });
 
-  it.each(modelIds)("gives %s a Jacobian with one column per parameter and one row per time", (id) => {
-    const m = models[id];
+  it.each(Object.keys(models) as (keyof typeof models)[])("gives %s a Jacobian with one column per parameter and one row per time", (id) => {
+    const m: DrawdownModel = models[id];
     const p = m.parameters.map((d) => Math.sqrt(d.bounds[0] * d.bounds[1]));
     const J = m.jacobian!(p, { r: 10, Q: 100 }, [0.5, 1, 2]);
     expect(J.length).toBe(m.parameters.length);

@@ -71,11 +71,11 @@ describe("volume and discharge factors", () => {
 
   it("converts gallons per minute and per day to cubic metres per day", () => {
     // Exact arithmetic: 3.785411784e-3 m³ × 1440 min/d = 5.45099296896 m³/d
-    expectRelative(convert(1, "gpm", "m3/d"), 5.45099296896);
+    expectRelative(convert(1, "US gpm", "m3/d"), 5.45099296896);
     expectRelative(convert(1, "US gal/min", "m3/d"), 5.45099296896);
     // NIST SP 811 (2008) B.8 (from memory): gallon (U.S.) per minute = 6.309 020 E-05 m³/s
-    expect(Math.abs(convert(1, "gpm", "m3/s") - 6.30902e-5)).toBeLessThan(0.5e-11);
-    expectRelative(convert(1, "gpd", "m3/d"), 3.785411784e-3);
+    expect(Math.abs(convert(1, "US gpm", "m3/s") - 6.30902e-5)).toBeLessThan(0.5e-11);
+    expectRelative(convert(1, "US gpd", "m3/d"), 3.785411784e-3);
     expectRelative(convert(1, "US gal/d", "m3/d"), 3.785411784e-3);
   });
 
@@ -98,10 +98,10 @@ describe("volume and discharge factors", () => {
 describe("transmissivity and hydraulic conductivity factors", () => {
   it("converts US gallons per day per foot to square metres per day", () => {
     // Exact arithmetic: 3.785411784e-3 m³ / 0.3048 m per day = 0.01241933 m²/d exactly
-    expectRelative(convert(1, "gpd/ft", "m2/d"), 0.01241933);
+    expectRelative(convert(1, "US gpd/ft", "m2/d"), 0.01241933);
     expectRelative(convert(1, "US gal/d/ft", "m2/d"), 0.01241933);
     // Common practice, no source: 1 m²/d is about 80.5 gpd/ft
-    expect(convert(1, "m2/d", "gpd/ft")).toBeCloseTo(80.52, 2);
+    expect(convert(1, "m2/d", "US gpd/ft")).toBeCloseTo(80.52, 2);
   });
 
   it("converts square feet per day and square metres per second to square metres per day", () => {
@@ -115,7 +115,7 @@ describe("transmissivity and hydraulic conductivity factors", () => {
     expectRelative(convert(1, "cm/s", "m/d"), 864); // Exact arithmetic: 0.01 m × 86400
     expectRelative(convert(1, "ft/d", "m/d"), 0.3048); // NIST SP 811 B.8: 1 ft = 0.3048 m exactly
     // Exact arithmetic: 3.785411784e-3 / 0.3048² = 0.0407458333... m/d
-    expectRelative(convert(1, "gpd/ft2", "m/d"), 0.040745833333333335);
+    expectRelative(convert(1, "US gpd/ft2", "m/d"), 0.040745833333333335);
   });
 
   it("converts leakance from per second to per day", () => {
@@ -214,8 +214,8 @@ describe("convert", () => {
       ["m", "ft"],
       ["d", "s"],
       ["m3/d", "L/s"],
-      ["m3/d", "gpm"],
-      ["m2/d", "gpd/ft"],
+      ["m3/d", "US gpm"],
+      ["m2/d", "US gpd/ft"],
       ["m/d", "cm/s"],
       ["1/d", "1/min"],
       ["Pa", "psi"],
@@ -304,11 +304,11 @@ describe("baseUnitOf", () => {
 
 describe("isDimension and requireDimension", () => {
   it("tell whether a unit has a named dimension", () => {
-    expect(isDimension("gpm", "discharge")).toBe(true);
-    expect(isDimension("gpd/ft", "transmissivity")).toBe(true);
+    expect(isDimension("US gpm", "discharge")).toBe(true);
+    expect(isDimension("US gpd/ft", "transmissivity")).toBe(true);
     expect(isDimension("ft/d", "velocity")).toBe(true);
     expect(isDimension("psi", "pressure")).toBe(true);
-    expect(isDimension("gpm", "transmissivity")).toBe(false);
+    expect(isDimension("US gpm", "transmissivity")).toBe(false);
   });
 
   it("return the unit or explain what was expected", () => {

@@ -46,16 +46,16 @@ describe("parseUnit: the units the trade writes", () => {
     ["L/s", "discharge"],
     ["L/min", "discharge"],
     ["US gal/min", "discharge"],
-    ["gpm", "discharge"],
+    ["US gpm", "discharge"],
     ["US gal/d", "discharge"],
-    ["gpd", "discharge"],
+    ["US gpd", "discharge"],
     ["ft3/s", "discharge"],
     ["cfs", "discharge"],
     ["m2/d", "transmissivity"],
     ["m2/s", "transmissivity"],
     ["ft2/d", "transmissivity"],
     ["US gal/d/ft", "transmissivity"],
-    ["gpd/ft", "transmissivity"],
+    ["US gpd/ft", "transmissivity"],
     ["m/d", "velocity"],
     ["m/s", "velocity"],
     ["cm/s", "velocity"],
@@ -128,7 +128,7 @@ describe("parseUnit: compound expressions", () => {
   });
 
   it("returns frozen units", () => {
-    const unit = parseUnit("gpm");
+    const unit = parseUnit("US gpm");
     expect(Object.isFrozen(unit)).toBe(true);
     expect(Object.isFrozen(unit.dimension)).toBe(true);
   });
@@ -136,14 +136,15 @@ describe("parseUnit: compound expressions", () => {
 
 describe("parseUnit: errors a user can act on", () => {
   it("names an unknown unit and suggests the closest known one", () => {
-    expect(() => parseUnit("gmp")).toThrow("unknown unit 'gmp' — did you mean 'gpm'?");
+    // 'gpm' is close but ambiguous, so its two readings are suggested.
+    expect(() => parseUnit("gmp")).toThrow("unknown unit 'gmp' — did you mean 'US gpm' or 'imp gpm'?");
     const error = errorOf(() => parseUnit("gmp"));
-    expect(error.suggestions).toEqual(["gpm"]);
+    expect(error.suggestions).toEqual(["US gpm", "imp gpm"]);
     expect(error.name).toBe("UnitError");
   });
 
   it("names the whole text when the unknown part is inside a compound unit", () => {
-    expect(() => parseUnit("gmp/d")).toThrow("unknown unit 'gmp' in 'gmp/d' — did you mean 'gpm'?");
+    expect(() => parseUnit("gmp/d")).toThrow("unknown unit 'gmp' in 'gmp/d' — did you mean 'US gpm' or 'imp gpm'?");
     expect(() => parseUnit("m3/dy")).toThrow("unknown unit 'dy' in 'm3/dy' — did you mean 'd' or 'day'?");
   });
 
@@ -157,15 +158,16 @@ describe("parseUnit: errors a user can act on", () => {
   });
 
   it("lists several suggestions when they are equally close", () => {
-    expect(() => parseUnit("ms")).toThrow("unknown unit 'ms' — did you mean 'm', 'mm' or 's'?");
+    expect(() => parseUnit("ms")).toThrow("unknown unit 'ms' — did you mean 'm', 'mD' or 'mm'?");
   });
 
-  it("refuses the ambiguous 'gal' and says what to write", () => {
+  it("refuses the ambiguous 'gal' and 'gpm' alike and says what to write", () => {
     const error = errorOf(() => parseUnit("gal/min"));
     expect(error.message).toBe(
-      "'gal' is ambiguous (US or imperial gallon): write 'US gal' for the US gallon of 231 in³ (in 'gal/min')",
+      "'gal' is ambiguous (US or imperial gallon): write 'US gal' (231 in³ = 3.785411784 L) or 'imp gal' (4.54609 L) (in 'gal/min')",
     );
-    expect(error.suggestions).toEqual(["US gal"]);
+    expect(error.suggestions).toEqual(["US gal", "imp gal"]);
+    for (const text of ["gpm", "gpd", "gpd/ft", "MGD", "Mgal/d"]) expect(() => parseUnit(text), text).toThrow(/is ambiguous \(US or imperial/);
   });
 
   it("lists known units when nothing is close", () => {

@@ -6,7 +6,7 @@ describe("Quantity conversion", () => {
     const depth = quantity(100, "ft").to("m");
     expect(depth.value).toBe(30.48); // NIST SP 811 (2008) B.8: 1 ft = 0.3048 m exactly
     expect(depth.unit.symbol).toBe("m");
-    expect(quantity(1, "gpd/ft").to("m2/d").value).toBeCloseTo(0.01241933, 15); // 3.785411784e-3 / 0.3048
+    expect(quantity(1, "US gpd/ft").to("m2/d").value).toBeCloseTo(0.01241933, 15); // 3.785411784e-3 / 0.3048
   });
 
   it("refuses to convert to another dimension", () => {
@@ -60,7 +60,7 @@ describe("Quantity multiplication and division", () => {
       quantity(1, "US gal").div(quantity(1, "m2/d")),
       quantity(3, "m3").div(quantity(1, "US gal")),
       quantity(2, "m2/d").mul(quantity(3, "m")).div(quantity(4, "m3/d")),
-      quantity(1, "gpm").mul(quantity(2, "min")),
+      quantity(1, "US gpm").mul(quantity(2, "min")),
     ];
     for (const q of cases) {
       const reparsed = parseUnit(q.unit.symbol);
@@ -72,7 +72,7 @@ describe("Quantity multiplication and division", () => {
   });
 
   it("lets a gallon count per minute times minutes come out in gallons", () => {
-    expect(quantity(1, "gpm").mul(quantity(2, "min")).to("US gal").value).toBeCloseTo(2, 14);
+    expect(quantity(1, "US gpm").mul(quantity(2, "min")).to("US gal").value).toBeCloseTo(2, 14);
   });
 
   it("scales by a plain number and keeps the unit", () => {
@@ -101,10 +101,10 @@ describe("Quantity immutability and printing", () => {
     expect(quantity(12.5, "m3/d").toString()).toBe("12.5 m3/d");
     expect(quantity(1 / 3, "m").toString(3)).toBe("0.333 m");
     expect(quantity(2e-4, "-").toString()).toBe("0.0002");
-    expect(`${quantity(3, "gpm")}`).toBe("3 gpm");
+    expect(`${quantity(3, "US gpm")}`).toBe("3 US gpm");
   });
 
   it("refuses an unknown unit at construction", () => {
-    expect(() => quantity(1, "gmp")).toThrow("unknown unit 'gmp' — did you mean 'gpm'?");
+    expect(() => quantity(1, "gmp")).toThrow("unknown unit 'gmp' — did you mean 'US gpm' or 'imp gpm'?");
   });
 });

@@ -5,6 +5,7 @@
 import { EXIT, InputError, UsageError } from "./errors.js";
 import { EXPORT_HELP, exportCommand } from "./commands/export.js";
 import { NEW_HELP, newCommand } from "./commands/new.js";
+import { PIN_HELP, pinCommand } from "./commands/pin.js";
 import { RUN_HELP, runCommand } from "./commands/run.js";
 import { VERIFY_HELP, verifyCommand } from "./commands/verify.js";
 import type { Io } from "./io.js";
@@ -15,6 +16,7 @@ const COMMANDS: Record<string, { help: string; run: (argv: readonly string[], io
   verify: { help: VERIFY_HELP, run: verifyCommand },
   new: { help: NEW_HELP, run: newCommand },
   export: { help: EXPORT_HELP, run: exportCommand },
+  pin: { help: PIN_HELP, run: pinCommand },
 };
 
 export const MAIN_HELP = `Usage: conebook COMMAND [options]
@@ -24,6 +26,7 @@ Commands:
   verify FILE    rerun a document and compare with its recorded outputs
   new TEMPLATE   a new document from a template (-o FILE, --set, --data)
   export FILE    a self-contained HTML report (-o report.html)
+  pin FILE       re-pin data files after an intended change (prints both SHA-256 digests)
 
 conebook COMMAND --help shows a command's options. conebook --version shows the version.
 Exit codes: 0 ok; 1 a check failed; 2 usage or input error.`;

@@ -3,7 +3,7 @@
  * data files read beside the document.
  */
 import type { Cell } from "@conebook/document";
-import type { RunResult } from "@conebook/kernel";
+import type { RecordedControl, RunResult } from "@conebook/kernel";
 import { createNodeKernel, fileReaderFor } from "@conebook/kernel/node";
 import type { Io } from "./io.js";
 import type { LoadedDocument } from "./load.js";
@@ -13,13 +13,22 @@ export function cellLine(cell: Cell): number {
   return (cell.origin?.start ?? cell.sourceStart).line;
 }
 
-/** Runs every cell of `loaded.document` with `overrides`; progress lines go to standard error when it is a terminal. */
-export async function execute(loaded: LoadedDocument, overrides: Record<string, number>, io: Io): Promise<RunResult> {
+/**
+ * Runs every cell of `loaded.document` with `overrides` and the control values recorded in it (`recorded`; none
+ * for a fresh run); progress lines go to standard error when it is a terminal.
+ */
+export async function execute(
+  loaded: LoadedDocument,
+  overrides: Record<string, number>,
+  io: Io,
+  recorded: Record<string, RecordedControl> = {},
+): Promise<RunResult> {
   const kernel = createNodeKernel();
   const byId = new Map(loaded.document.cells.map((c) => [c.id, c]));
   try {
     return await kernel.runDocument(loaded.document, {
       overrides,
+      recordedControls: recorded,
       readFile: fileReaderFor(loaded.folder),
       onProgress: (p) => {
         if (!io.progress) return;

@@ -27,7 +27,7 @@ export function outputDigest(o: CellOutput): string {
     case "text":
       return JSON.stringify(clip(o.text, 40));
     case "table":
-      return `table${o.title ? ` "${clip(o.title, 30)}"` : ""} ${o.rows.length}×${o.columns.length}`;
+      return `table${o.title ? ` "${clip(o.title, 60)}"` : ""} ${o.rows.length}×${o.columns.length}`;
     case "chart": {
       const d = o.summary.datasets;
       return `chart (${d.length ? d.map((x) => `${x.name}: ${x.rows} rows`).join(", ") : "no data"})`;
@@ -47,4 +47,40 @@ export function outputDigest(o: CellOutput): string {
 export function outputsDigest(outputs: readonly CellOutput[], max = 100): string {
   if (outputs.length === 0) return "";
   return clip(outputs.map(outputDigest).join("; "), max);
+}
+
+type TableOutput = Extract<CellOutput, { type: "table" }>;
+
+function cellText(v: number | string | null): string {
+  return typeof v === "number" ? formatNumber(v) : v === null ? "" : v;
+}
+
+/**
+ * The headline of a table of estimates (a fit, a step or slug test, a recovery line: columns "estimate", "95 %
+ * low", "95 % high", "unit"): its full title, then one line per row, "T (transmissivity) = 250.3 m2/d (95 %:
+ * 240.1 to 261)". Empty for any other output.
+ */
+export function headlineLines(o: CellOutput, indent = "      "): string[] {
+  if (o.type !== "table") return [];
+  const at = (name: string) => o.columns.findIndex((c) => c.name === name);
+  const [estimate, low, high, unit] = [at("estimate"), at("95 % low"), at("95 % high"), at("unit")];
+  if (estimate < 0 || low < 0 || high < 0) return [];
+  const lines = o.title ? [`${indent.slice(2)}${o.title}`] : [];
+  for (const row of o.rows) {
+    const value = row[estimate];
+    if (typeof value !== "number") continue;
+    const u = unit >= 0 && typeof row[unit] === "string" && row[unit] !== "" && row[unit] !== "1" ? ` ${row[unit]}` : "";
+    const interval = typeof row[low] === "number" && typeof row[high] === "number" ? ` (95 %: ${formatNumber(row[low] as number)} to ${formatNumber(row[high] as number)})` : "";
+    lines.push(`${indent}${cellText(row[0] ?? "")} = ${formatNumber(value)}${u}${interval}`);
+  }
+  return lines;
+}
+
+/** A table laid out in columns for a terminal: title, header with units, rows; numbers as formatNumber gives them. */
+export function tableLines(o: TableOutput, indent = "    "): string[] {
+  const header = o.columns.map((c) => (c.unit ? `${c.name} (${c.unit})` : c.name));
+  const body = o.rows.map((r) => o.columns.map((_, i) => cellText(r[i] ?? null)));
+  const widths = header.map((h, i) => Math.max(h.length, ...body.map((r) => r[i]!.length)));
+  const line = (cells: string[]) => `${indent}${cells.map((c, i) => c.padEnd(widths[i]!)).join("  ")}`.trimEnd();
+  return [...(o.title ? [`${indent}${o.title}`] : []), line(header), ...body.map(line)];
 }

@@ -9,6 +9,7 @@
  */
 import { convert, parseUnit } from "@conebook/aquifer";
 import type { CellOutput, ConebookDocument, Position, TemplateParameter } from "@conebook/document";
+import type { RecordedControl } from "@conebook/kernel";
 import { InputError, UsageError, place } from "./errors.js";
 
 /** One `--set` as typed. */
@@ -42,13 +43,13 @@ export function parseSettings(words: readonly string[], command: string): Settin
 }
 
 /** A control output recorded in the document, with the place of its cell. */
-interface RecordedControl {
+interface ControlInFile {
   output: Extract<CellOutput, { type: "control" }>;
   line: number;
 }
 
-function recordedControls(doc: ConebookDocument): Map<string, RecordedControl> {
-  const out = new Map<string, RecordedControl>();
+function recordedControls(doc: ConebookDocument): Map<string, ControlInFile> {
+  const out = new Map<string, ControlInFile>();
   for (const cell of doc.cells) {
     for (const o of cell.outputs) {
       if (o.type === "control" && !out.has(o.name)) out.set(o.name, { output: o, line: (cell.origin?.start ?? cell.sourceStart).line });
@@ -116,6 +117,8 @@ export function applySettings(doc: ConebookDocument, shown: string, settings: re
         );
       }
       p.value = v;
+      if (s.unit !== undefined && s.unit !== p.unit) p.given = `${s.number} ${s.unit}`;
+      else delete p.given;
       continue;
     }
     const control = allowControls ? controls.get(s.name) : undefined;
@@ -147,24 +150,21 @@ export function applySettings(doc: ConebookDocument, shown: string, settings: re
 }
 
 /**
- * The overrides a run gets, later sources winning: the control values recorded in the file (so a rerun keeps
- * them), then every numeric template parameter under its own name (so that a control of that name takes the
- * parameter's value), then the control values given with --set.
+ * The overrides a run gets, later sources winning: every numeric template parameter under its own name (so that a
+ * control of that name takes the parameter's value), then the control values given with --set. Control values
+ * recorded in the file are not overrides: the kernel uses them only while the control's default in the code is
+ * the one recorded beside them (`recordedControlValues`).
  */
-export function runOverrides(
-  recorded: Record<string, number>,
-  parameters: readonly TemplateParameter[],
-  controls: Record<string, number>,
-): Record<string, number> {
+export function runOverrides(parameters: readonly TemplateParameter[], controls: Record<string, number>): Record<string, number> {
   const fromParameters: Record<string, number> = {};
   for (const p of parameters) if (typeof p.value === "number") fromParameters[p.name] = p.value;
-  return { ...recorded, ...fromParameters, ...controls };
+  return { ...fromParameters, ...controls };
 }
 
-/** The control values recorded in the document's outputs, by name (used to rerun a document as recorded). */
-export function recordedControlValues(doc: ConebookDocument): Record<string, number> {
-  const out: Record<string, number> = {};
-  for (const [name, c] of recordedControls(doc)) out[name] = c.output.value;
+/** The control values recorded in the document's outputs, with the default recorded beside each, by name. */
+export function recordedControlValues(doc: ConebookDocument): Record<string, RecordedControl> {
+  const out: Record<string, RecordedControl> = {};
+  for (const [name, c] of recordedControls(doc)) out[name] = { value: c.output.value, default: c.output.default };
   return out;
 }
 

@@ -186,6 +186,14 @@ function parameterFromRaw(p: unknown, path: string, typeError: (path: string, ex
     if (typeof p.description === "string") param.description = p.description;
     else typeError(`${path}.description`, "a string");
   }
+  if (p.required !== undefined) {
+    if (typeof p.required === "boolean") param.required = p.required;
+    else typeError(`${path}.required`, "true or false");
+  }
+  if (p.given !== undefined) {
+    if (typeof p.given === "string") param.given = p.given;
+    else typeError(`${path}.given`, "a string");
+  }
   return param;
 }
 
@@ -227,6 +235,8 @@ export function headerToRaw(h: DocumentHeader): Raw {
       if (p.unit !== undefined) o.unit = p.unit;
       if (p.range !== undefined) o.range = [...p.range];
       if (p.description !== undefined) o.description = p.description;
+      if (p.required !== undefined) o.required = p.required;
+      if (p.given !== undefined) o.given = p.given;
       return o;
     });
   }

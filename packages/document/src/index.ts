@@ -23,6 +23,7 @@ export type {
   TemplateParameter,
 } from "./types.js";
 export { parseDocument } from "./parse.js";
+export { cellStartInside } from "./cell-start.js";
 export type { ParseOptions, ParseResult } from "./parse.js";
 export { serializeDocument } from "./serialize.js";
 export type { SerializeOptions } from "./serialize.js";

@@ -51,6 +51,10 @@ export const messages = {
     code: "fence-unclosed",
     message: `this code fence is never closed, so it runs to the end of the file; add a line ${q(fence)} where the block should end`,
   }),
+  fenceSwallowsCell: (fence: string, line: number, text: string) => ({
+    code: "fence-swallows-cell",
+    message: `this code fence is not closed before line ${line}, which starts another cell (${text}); that cell is read as part of this one. Add a line ${q(fence)} before line ${line}`,
+  }),
   cellLanguage: (kind: string, lang: string, allowed: string) => ({
     code: "cell-language",
     message: `a ${kind} cell cannot be written in ${q(lang)}; use ${allowed}. The block is kept as ordinary Markdown`,

@@ -8,6 +8,7 @@
 import MarkdownIt from "markdown-it";
 import { parse as parseYaml } from "yaml";
 import { cellSnapshot, outputsKey } from "./cell-keys.js";
+import { cellStartInside } from "./cell-start.js";
 import { DocumentError, diagnostic } from "./errors.js";
 import { closesFence, readCellInfo, readOpeningFence } from "./fence.js";
 import type { CellInfo, OpeningFence } from "./fence.js";
@@ -162,7 +163,9 @@ export function splitBody(text: string, from: number, file?: string): BodyReadin
           continue;
         }
         const closed = endLine > startLine && closesFence(lineText(endLine), fence);
-        if (!closed) warn(messages.fenceUnclosed(fence.char.repeat(fence.length)), at, info.id);
+        const inside = cellStartInside(lines.slice(startLine + 1, closed ? endLine : lines.length).map((l) => text.slice(l.start, l.end)).join("\n"));
+        if (inside) warn(messages.fenceSwallowsCell(fence.char.repeat(fence.length), startLine + 1 + inside.line, inside.text), at, info.id);
+        else if (!closed) warn(messages.fenceUnclosed(fence.char.repeat(fence.length)), at, info.id);
         blocks.push({
           type: "fenced",
           start: lines[startLine]!.start,

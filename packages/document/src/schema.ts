@@ -44,6 +44,8 @@ export const headerSchema: JsonSchema = {
           unit: text,
           range: { type: "array", items: { type: "number" }, minItems: 2, maxItems: 2, description: "[min, max], inclusive." },
           description: text,
+          required: { type: "boolean", description: "The template's value is a demonstration only: `conebook new` needs a value for it." },
+          given: { type: "string", description: "The value as typed with its unit, when it was converted to unit." },
         },
       },
     },

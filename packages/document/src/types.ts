@@ -22,6 +22,13 @@ export interface TemplateParameter {
   /** Inclusive allowed range [min, max] of a numeric value, in `unit`. */
   range?: [number, number];
   description?: string;
+  /** True when a template's value is only a demonstration: `conebook new` refuses to run without a value for it. */
+  required?: boolean;
+  /**
+   * The value as the user typed it, with its unit, when it was converted to `unit` (e.g. "165 US gpm" for a
+   * value in m3/d); written by `--set` so the header keeps what was given beside the converted value.
+   */
+  given?: string;
 }
 
 /** A place where a template expects a data set to be supplied (for example a drawdown record). */

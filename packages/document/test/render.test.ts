@@ -30,6 +30,7 @@ describe("a raw Conebook file in a CommonMark viewer", () => {
       '<pre><code class="language-ts">',
       '<pre><code class="language-json">',
       '<pre><code class="language-yaml">',
+      '<pre><code class="language-json">',
     ]);
     expect(fenced).toHaveLength(3);
   });

@@ -46,8 +46,11 @@ import {
   expint1,
   expint1Scaled,
   fitModel,
+  describeModel as describeRegisteredModel,
   getModel,
   hantushJacobDrawdown,
+  ModelInputError,
+  UnknownModelError,
   leakageFactorFromLeakance,
   leakanceFromLeakageFactor,
   logResample,
@@ -80,6 +83,8 @@ import {
   type ObservationCsvOptions,
   type ObservationSeries,
   type ObservationWell,
+  type DrawdownModel,
+  type ModelSpec,
 } from "@conebook/aquifer";
 import {
   ArgumentError,
@@ -95,6 +100,7 @@ import {
   oneOf,
   optional,
   pickArg,
+  plainData,
   positive,
   quantityArg,
   rangeArg,
@@ -146,8 +152,8 @@ export function fn<const A extends readonly BridgeArgument[]>(
 }
 
 /** A model descriptor as plain data (the forward model's functions are host code and stay on the host). */
-function describeModel(id: string): unknown {
-  const { drawdown: _d, jacobian: _j, ...descriptor } = getModel(id);
+function describeModel(model: DrawdownModel): unknown {
+  const { drawdown: _d, jacobian: _j, ...descriptor } = model;
   return descriptor;
 }
 
@@ -165,7 +171,32 @@ const matchPointInput = recordArg({ Q: positive, r: positive, W: positive, u: po
 
 // ---- Argument shapes of the data and fitting functions -------------------------------------------------------
 
-const modelIdArg = stringArg(modelIds);
+/**
+ * A model: a registered id ("theis"), or for a model bound to geometry its id with options
+ * ({ id: "neuman", saturatedThickness: 12 }, lengths in m or { value, unit }). The options are checked by the
+ * registry (names, presence, types, units) and the built model is what the host function receives.
+ */
+const modelIdArg: Validator<DrawdownModel> = {
+  expects: `a model id (${modelIds.join(", ")}) or { id, ...options } for a model bound to geometry`,
+  check(value, at) {
+    const spec = plainData.check(value, at);
+    if (typeof spec !== "string" && (spec === null || typeof spec !== "object" || Array.isArray(spec) || typeof (spec as { id?: unknown }).id !== "string")) {
+      throw new ArgumentError(`${at} must be ${this.expects}, got ${spec === null ? "null" : Array.isArray(spec) ? "an array" : typeof spec}`);
+    }
+    try {
+      return getModel(spec as ModelSpec);
+    } catch (e) {
+      if (e instanceof ModelInputError || e instanceof UnknownModelError) throw new ArgumentError(`${at}: ${e.message}`);
+      throw e;
+    }
+  },
+};
+
+/** A model spec as a fit result carries it: an id, or { id, ...options } with the options as numbers (base units). */
+const modelSpecData: Validator<ModelSpec> = oneOf(stringArg(), refine(mapOf(oneOf(stringArg(), finite)), "{ id, ...options }", (o, at) => {
+  if (typeof o.id !== "string") throw new ArgumentError(`${at} must have an id (a model id)`);
+  return o as ModelSpec;
+}));
 const geometryArg = recordArg({ r: positive, Q: finite });
 /** Times or drawdowns as the aquifer functions take them; they report non-finite entries with the point index. */
 const samples = numbersArg({ allowNonFinite: true }, 0);
@@ -225,7 +256,7 @@ const fitOptionsArg = refine(
     correlationWarning: optional(numberArg({ min: 0, max: 1, exclusiveMin: true })),
   }),
   "fit options { model, wells, start?, fixed?, bounds?, jacobian?, ftol?, xtol?, gtol?, maxEvaluations?, correlationWarning? }",
-  (o): FitOptions => ({ ...o, model: getModel(o.model), jacobian: o.jacobian as FitOptions["jacobian"] }),
+  (o): FitOptions => ({ ...o, jacobian: o.jacobian as FitOptions["jacobian"] }),
 );
 
 const rateStepsArg = recordArg({ unit: stringArg(), steps: arrayOf(recordArg({ start: finite, rate: finite }), 1) });
@@ -297,8 +328,9 @@ const parametersArg = oneOf(numbersArg({}, 1), mapOf(finite));
  * The parameter vector of model `id` from a vector (descriptor order) or a record by name; a missing or
  * unknown name is an ArgumentError listing the model's parameters with their units.
  */
-function parameterVector(id: string, values: Float64Array | Record<string, number>, where = "aq.drawdown"): Float64Array {
-  const { parameters } = getModel(id);
+function parameterVector(model: DrawdownModel, values: Float64Array | Record<string, number>, where = "aq.drawdown"): Float64Array {
+  const { parameters } = model;
+  const id = model.id;
   const list = parameters.map((p) => `${p.name} (${p.label}, ${p.unit})`).join(", ");
   if (values instanceof Float64Array) {
     if (values.length !== parameters.length) {
@@ -316,9 +348,9 @@ function parameterVector(id: string, values: Float64Array | Record<string, numbe
   });
 }
 
-/** Drawdown (m) of model `id` at times t (d) for the geometry { r (m), Q (m3/d) }; the model's own formula. */
-function modelDrawdown(id: string, values: Float64Array | Record<string, number>, geometry: { r: number; Q: number }, t: Float64Array): Float64Array {
-  return getModel(id).drawdown(parameterVector(id, values), geometry, t);
+/** Drawdown (m) of `model` at times t (d) for the geometry { r (m), Q (m3/d) }; the model's own formula. */
+function modelDrawdown(model: DrawdownModel, values: Float64Array | Record<string, number>, geometry: { r: number; Q: number }, t: Float64Array): Float64Array {
+  return model.drawdown(parameterVector(model, values), geometry, t);
 }
 
 const bourdetOptionsArg = recordArg({ smoothingLog10: optional(nonNegative), endpoints: optional(stringArg(["one-sided", "omit"])) });
@@ -418,6 +450,7 @@ const uncertaintyArg: Validator<ForecastUncertainty> = oneOf(
 /** A fit result as plain data, with the fields a forecast reads (the result of aq.fitModel or aq.fitSeries as it is). */
 const forecastableFitArg: Validator<ForecastableFit> = pickArg({
   modelId: stringArg(),
+  modelSpec: optional(modelSpecData),
   parameters: arrayOf(pickArg({ name: stringArg(), estimate: finite }), 1),
   freeParameters: stringsArg(),
   covariance: arrayOf(numbersArg({ allowNonFinite: true }, 0)),
@@ -466,7 +499,7 @@ const forecastSchemeArg = refine(forecastSchemeFields, forecastSchemeFields.expe
 
 /** forecastDrawdown with the model by id, the fit as plain data and boundaries as records seen from the first well. */
 function forecastScheme(o: Checked<typeof forecastSchemeArg>): unknown {
-  const model = getModel(o.model);
+  const model = o.model;
   const given: GivenParameters = o.fit
     ? fitAsGivenParameters("aq.forecastDrawdown", o.fit, model)
     : { parameters: o.parameters!, ...(o.covariance ? { covariance: { names: o.covariance.names, matrix: o.covariance.matrix.map((row) => Array.from(row)) } } : {}) };
@@ -496,7 +529,7 @@ const schemeDrawdownArg = recordArg({
 /** schemeDrawdown with the model by id and boundaries as records seen from the first well. */
 function schemeDrawdownFromRecords(o: Checked<typeof schemeDrawdownArg>): unknown {
   return schemeDrawdown(
-    getModel(o.model),
+    o.model,
     parameterVector(o.model, o.parameters, "aq.schemeDrawdown"),
     { wells: o.wells, boundaries: boundariesFromRecords(o.wells[0]!, o.boundaries ?? []), tolerance: o.tolerance, jacobian: o.jacobian },
     o.point,
@@ -605,21 +638,25 @@ export const AQUIFER_API: Readonly<Record<string, BridgeEntry>> = {
   ),
   "aq.modelIds": fn("Identifiers of the drawdown models, e.g. ['theis', 'cooper-jacob', ...]", [], () => [...modelIds]),
   "aq.describeModel": fn(
-    "A model's descriptor: name, source, assumptions, validity, cautions, parameters with units and bounds",
+    "A model's descriptor: name, source, assumptions, validity, cautions, parameters with units and bounds, and the geometry options it takes",
     [arg("id", stringArg())],
-    (id) => describeModel(id),
+    (id) => describeRegisteredModel(id),
   ),
   "aq.studentTQuantile": fn(
     "Quantile of Student's t distribution for probability p (0 < p < 1) and dof degrees of freedom",
     [arg("p", numberArg({ min: 0, max: 1, exclusiveMin: true })), arg("dof", positive)],
     (p, dof) => studentTQuantile(p, dof),
   ),
-  "aq.getModel": fn("The same descriptor as aq.describeModel(id): the forward model itself stays on the host", [arg("id", modelIdArg)], (id) => describeModel(id)),
+  "aq.getModel": fn(
+    "The descriptor of the model an id or { id, ...options } makes (options checked): the forward model itself stays on the host",
+    [arg("model", modelIdArg)],
+    (model) => describeModel(model),
+  ),
   "aq.parseUnit": fn("A unit as data: { symbol, dimension: { L, T, M }, dimensionName, factor (to base units), description }", [arg("unit", stringArg())], (unit) =>
     describeParsedUnit(unit),
   ),
   "aq.drawdown": fn(
-    "Drawdown (m) of model id at times t (d) for parameters (vector or record, base units) and { r (m), Q (m3/d) }",
+    "Drawdown (m) of a model (id, or { id, ...geometry options }) at times t (d) for parameters (vector or record, base units) and { r (m), Q (m3/d) }",
     [arg("model", modelIdArg), arg("parameters", parametersArg), arg("geometry", geometryArg), arg("t", oneOf(samples, refine(finite, "a number", (t) => Float64Array.of(t))))],
     (model, parameters, geometry, t) => modelDrawdown(model, parameters, geometry, t),
   ),
@@ -785,7 +822,7 @@ export const AQUIFER_API: Readonly<Record<string, BridgeEntry>> = {
       arg("threshold", finite),
       arg("options", optional(recordArg({ rMin: optional(positive), rMax: optional(positive) }))),
     ],
-    (model, parameters, Q, t, threshold, options) => distanceToThreshold(getModel(model), parameters, Q, t, threshold, options),
+    (model, parameters, Q, t, threshold, options) => distanceToThreshold(model, parameters, Q, t, threshold, options),
   ),
   "aq.forecastDrawdown": fn(
     "Drawdown forecast (m) at points (m) and times (d) for wells [{ name, x, y, steps }] and boundaries [{ kind, distance (m), angle (deg) }], from a fit or parameters, with bands",

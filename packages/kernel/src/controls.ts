@@ -1,11 +1,20 @@
 /**
  * `control(name, { value, min, max, unit?, description? })`: a number a reader may change before a rerun.
- * The cell gets the override given to the run for that name (checked against the range) or the default value.
+ * The cell gets, first that applies: the override given to the run for that name (a --set value or a template
+ * parameter, checked against the range); the value recorded in the document for it, while the default in the
+ * code is still the default recorded beside it (a changed default means the record belongs to older code, and
+ * the new default wins, with a note); the default value.
  */
 import type { CellOutput } from "@conebook/document";
 import { ArgumentError, finite, optional, recordArg, stringArg } from "./validators.js";
 
 type ControlOutput = Extract<CellOutput, { type: "control" }>;
+
+/** A control value recorded in a document, with the default the code had when it was recorded. */
+export interface RecordedControl {
+  readonly value: number;
+  readonly default: number;
+}
 
 /** One control met during a run. */
 export interface ControlRecord {
@@ -23,6 +32,8 @@ export function controlValue(
   overrides: Record<string, number>,
   earlier: readonly ControlRecord[],
   cellId: string,
+  recorded: Readonly<Record<string, RecordedControl>> = {},
+  notes: string[] = [],
 ): ControlRecord {
   if (typeof name !== "string" || !NAME.test(name)) {
     throw new ArgumentError(`control: argument 1 (name) must be a name such as "Q" or "pumping_rate", got ${JSON.stringify(name) ?? "nothing"}`);
@@ -45,6 +56,17 @@ export function controlValue(
       throw new ArgumentError(`control "${name}": the override ${v}${unit} lies outside the allowed range ${o.min}..${o.max}${unit}; choose a value in the range`);
     }
     value = v;
+  } else if (Object.hasOwn(recorded, name)) {
+    const r = recorded[name]!;
+    if (r.default === o.value) {
+      if (r.value >= o.min && r.value <= o.max) value = r.value;
+      else notes.push(`control "${name}": the recorded value ${r.value}${unit} lies outside the range ${o.min}..${o.max}${unit} now in the code; the default ${o.value}${unit} is used`);
+    } else if (r.value !== r.default) {
+      notes.push(
+        `control "${name}": the default in the code changed from ${r.default}${unit} to ${o.value}${unit} since the value ${r.value}${unit} was recorded, ` +
+          `so the new default ${o.value}${unit} is used; give --set ${name}=${r.value} to use the recorded value again`,
+      );
+    }
   }
   const output: ControlOutput = { type: "control", name, value, default: o.value, min: o.min, max: o.max };
   if (o.unit !== undefined) output.unit = o.unit;

@@ -1,15 +1,15 @@
 /**
- * Display records from a cell (its last expression, `show(...)`, the `show.*` helpers) turned into the
+ * Display records from a cell (each `show.*` or `charts.*` call where it is made, `show(...)`, the last expression) turned into the
  * document's CellOutput values. Input is decoded wire data from the guest and is checked here; a display that
  * cannot be shown throws DisplayError with a message for the user.
  */
-import { getModel, isModelId } from "@conebook/aquifer";
+import { describeModel, isModelId } from "@conebook/aquifer";
 import type { CellOutput } from "@conebook/document";
 
-/** A display the kernel cannot turn into an output; the message says why and what to pass instead. */
-export class DisplayError extends Error {
-  override readonly name = "DisplayError";
-}
+import { DisplayError } from "./display-error.js";
+import { comparisonOutputs, forecastOutputs, recoveryOutputs, slugTestOutputs, stepTestOutputs } from "./result-tables.js";
+
+export { DisplayError };
 
 type Cell = number | string | null;
 type TableOutput = Extract<CellOutput, { type: "table" }>;
@@ -107,7 +107,7 @@ function statistic(v: unknown): number | null {
 /** The title of a fit table: the model's display name when the result names a registered model. */
 function fitTitle(result: Record<string, unknown>): string {
   const id = pick(result, "modelId");
-  if (typeof id === "string" && isModelId(id)) return `Fitted parameters: ${getModel(id).name}`;
+  if (typeof id === "string" && isModelId(id)) return `Fitted parameters: ${describeModel(id).name}`;
   const model = pick(result, "modelName", "model");
   return typeof model === "string" ? `Fitted parameters: ${model}` : "Fitted parameters";
 }
@@ -176,7 +176,7 @@ function parameterNote(p: Record<string, unknown>, modelId: string | undefined):
   const estimate = pick(p, "estimate", "value");
   const se = pick(p, "standardError", "stdError", "se");
   if (p.atBound === "lower" || p.atBound === "upper") {
-    const descriptor = modelId === undefined ? undefined : getModel(modelId).parameters.find((d) => d.name === name);
+    const descriptor = modelId === undefined || !isModelId(modelId) ? undefined : describeModel(modelId).parameters.find((d) => d.name === name);
     const meaning = descriptor?.atBound?.[p.atBound];
     return `at the ${p.atBound} bound of its fitting range: the data do not constrain ${name}${meaning ? `; ${meaning}` : ""}`;
   }
@@ -319,6 +319,34 @@ function valueOutput(payload: Record<string, unknown>): CellOutput {
  * to show (an undefined completion value).
  */
 export function displayToOutput(display: unknown): CellOutput | undefined {
+  return displayToOutputs(display)[0];
+}
+
+/** Results shown as several outputs (tables, then warnings as text), by display kind. */
+const RESULT_DISPLAYS: Readonly<Record<string, (result: unknown, options: unknown) => CellOutput[]>> = {
+  stepTest: stepTestOutputs,
+  slugTest: slugTestOutputs,
+  recovery: recoveryOutputs,
+  forecast: forecastOutputs,
+  comparison: comparisonOutputs,
+};
+
+/** Every output of one display record `{ kind, payload }`: none for an undefined completion value. */
+export function displayToOutputs(display: unknown): CellOutput[] {
+  if (isRecord(display) && typeof display.kind === "string" && Object.hasOwn(RESULT_DISPLAYS, display.kind)) {
+    const p = isRecord(display.payload) ? display.payload : {};
+    return RESULT_DISPLAYS[display.kind]!(p.result, p.options);
+  }
+  const out = singleOutput(display);
+  if (out === undefined) return [];
+  if (isRecord(display) && display.kind === "fit" && isRecord(display.payload) && isRecord(display.payload.result)) {
+    const notes = display.payload.result.plausibility;
+    if (Array.isArray(notes)) return [out, ...notes.filter((n): n is string => typeof n === "string").map((text) => ({ type: "text" as const, text }))];
+  }
+  return [out];
+}
+
+function singleOutput(display: unknown): CellOutput | undefined {
   if (!isRecord(display) || typeof display.kind !== "string") throw new DisplayError("internal: a display record has no kind");
   const payload = display.payload;
   const p = isRecord(payload) ? payload : {};

@@ -181,7 +181,7 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
 
   const aq = namespace(config.aquifer);
   const charts = namespace(config.charts);
-  // Chart builders return a Vega-Lite spec; mark it so a cell's last expression shows it as a chart.
+  // Chart builders return a Vega-Lite spec as a chart display, shown where it is made (see display below).
   const chartKeys = keysOf(charts);
   const taggedCharts = {};
   for (let i = 0; i < chartKeys.length; i++) {
@@ -192,17 +192,32 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     }, "name", { value: chartKeys[i] }));
   }
 
-  // Display helpers: tagged frozen records the host turns into outputs.
+  // Display helpers: tagged frozen records the host turns into outputs. The rule: every display appears, once,
+  // in call order: a show.* or charts.* call shows what it makes at once; show(x) shows x unless x is a display
+  // this cell has already shown; the cell's last expression is shown on the same terms.
+  const shownIn = new WeakMap();
+  const shownGet = Function.prototype.call.bind(WeakMap.prototype.get);
+  const shownSet = Function.prototype.call.bind(WeakMap.prototype.set);
+  let cellNumber = 0;
   function display(kind, payload) {
     const d = { kind: kind, payload: payload };
     defineProperty(d, DISPLAY, { value: true });
-    return freeze(d);
+    freeze(d);
+    emit(d, "show." + kind);
+    return d;
+  }
+  function isDisplay(v) {
+    return v !== null && typeof v === "object" && v[DISPLAY] === true;
   }
   function toDisplay(v) {
-    if (v !== null && typeof v === "object" && v[DISPLAY] === true) return { kind: v.kind, payload: v.payload };
+    if (isDisplay(v)) return { kind: v.kind, payload: v.payload };
     return { kind: "auto", payload: v };
   }
   function emit(v, where) {
+    if (isDisplay(v)) {
+      if (shownGet(shownIn, v) === cellNumber) return;
+      shownSet(shownIn, v, cellNumber);
+    }
     const w = encode(toDisplay(v), where);
     host.emit(w[0], w[1]);
   }
@@ -230,6 +245,21 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   };
   show.json = function json(v) {
     return display("json", { value: v });
+  };
+  show.stepTest = function stepTest(result, options) {
+    return display("stepTest", { result: result, options: options });
+  };
+  show.slugTest = function slugTest(result, options) {
+    return display("slugTest", { result: result, options: options });
+  };
+  show.recovery = function recovery(result, options) {
+    return display("recovery", { result: result, options: options });
+  };
+  show.forecast = function forecast(result, options) {
+    return display("forecast", { result: result, options: options });
+  };
+  show.comparison = function comparison(result, options) {
+    return display("comparison", { result: result, options: options });
   };
   freeze(show);
 
@@ -367,7 +397,9 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     return encode(v, "chart data " + stringify(name));
   }
   function displayCompletion(v) {
-    if (v === undefined) return undefined;
+    const cell = cellNumber;
+    cellNumber = cell + 1;
+    if (v === undefined || (isDisplay(v) && shownGet(shownIn, v) === cell)) return undefined;
     return encode(toDisplay(v), "the cell's last expression");
   }
 

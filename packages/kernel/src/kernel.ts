@@ -10,11 +10,11 @@
  * `not-run`. Each run starts from a new sandbox, which makes two runs of one document identical.
  */
 import type { QuickJSSyncVariant, QuickJSWASMModule } from "quickjs-emscripten-core";
-import type { Cell, CellOutput, ChartCell, CodeCell, ConebookDocument, DataCell } from "@conebook/document";
+import { cellStartInside, type Cell, type CellOutput, type ChartCell, type CodeCell, type ConebookDocument, type DataCell } from "@conebook/document";
 import { chartDataNames, chartRecords, fillChartData } from "./chart-cells.js";
-import { controlValue, type ControlRecord } from "./controls.js";
+import { controlValue, type ControlRecord, type RecordedControl } from "./controls.js";
 import { dataCellText, DataCellError, parseDataTable, type ReadFile } from "./data-cells.js";
-import { chartOutput, displayToOutput } from "./displays.js";
+import { chartOutput, displayToOutputs } from "./displays.js";
 import { limitsFor, type RunLimits } from "./limits.js";
 import { abortMessage, cellFilename, errorLocation } from "./locations.js";
 import { Sandbox, STACK_LIMIT_BYTES, type GuestError } from "./sandbox.js";
@@ -37,6 +37,11 @@ export interface RunProgress {
 export interface RunOptions {
   /** Values for `control(name, ...)` calls, by control name; each must lie in the control's range. */
   overrides?: Record<string, number>;
+  /**
+   * Control values recorded in the document, with the default recorded beside each: used where no override is
+   * given and only while the control's default in the code is unchanged (see controls.ts).
+   */
+  recordedControls?: Record<string, RecordedControl>;
   /** Reads a pinned data file beside the document (path relative, forward slashes). */
   readFile?: ReadFile;
   onProgress?: (progress: RunProgress) => void;
@@ -52,6 +57,8 @@ export interface RunResult {
   controlsUsed: ControlRecord[];
   /** Override names that no control asked for (probably misspelt). */
   unusedOverrides: string[];
+  /** What a reader should know about the values used, by cell: e.g. a recorded control value set aside. */
+  notes: { cellId: string; message: string }[];
   limits: RunLimits;
 }
 
@@ -133,6 +140,9 @@ async function runWithModule(
   const status: Record<string, CellStatus> = {};
   const cellTimes: Record<string, number> = {};
   const controlsUsed: ControlRecord[] = [];
+  const notes: { cellId: string; message: string }[] = [];
+  /** The CSV text of each data cell read so far, with where its lines are (for CSV errors found later). */
+  const dataTexts = new Map<string, (line: number) => string>();
   let current: { cell: Cell; outputs: CellOutput[] } | undefined;
 
   const sandbox = new Sandbox(mod, {
@@ -140,11 +150,16 @@ async function runWithModule(
     seed: doc.header.seed,
     hooks: {
       emit(display) {
-        const out = displayToOutput(display);
-        if (out && current) current.outputs.push(out);
+        const outs = displayToOutputs(display);
+        if (current) current.outputs.push(...outs);
+      },
+      placeOfText(text) {
+        return dataTexts.get(text);
       },
       control(name, opts) {
-        const record = controlValue(name, opts, overrides, controlsUsed, current?.cell.id ?? "");
+        const said: string[] = [];
+        const record = controlValue(name, opts, overrides, controlsUsed, current?.cell.id ?? "", options.recordedControls, said);
+        for (const message of said) notes.push({ cellId: record.cellId, message });
         controlsUsed.push(record);
         current?.outputs.push(record.output);
         return record.output.value;
@@ -164,7 +179,7 @@ async function runWithModule(
         status[cell.id] = "not-run";
       } else {
         current = { cell, outputs: [] };
-        const error = await runCell(sandbox, cell, limits, options.readFile, current.outputs);
+        const error = await runCell(sandbox, cell, limits, options.readFile, current.outputs, dataTexts);
         outputs[cell.id] = current.outputs;
         if (error) {
           current.outputs.push(error);
@@ -189,6 +204,7 @@ async function runWithModule(
       timings: { cells: cellTimes, sandboxStartMs, totalMs: performance.now() - tStart },
       controlsUsed,
       unusedOverrides: Object.keys(overrides).filter((k) => !used.has(k)),
+      notes,
       limits,
     },
   };
@@ -214,10 +230,22 @@ async function runCell(
   limits: RunLimits,
   readFile: ReadFile | undefined,
   outputs: CellOutput[],
+  dataTexts: Map<string, (line: number) => string>,
 ): Promise<ErrorOutput | undefined> {
   const fileLine = (line: number) => cell.sourceStart.line + line - 1;
   const fileColumn = (line: number, column: number) => (line === 1 ? cell.sourceStart.column + column - 1 : column);
   try {
+    const inside = cell.kind === "code" || (cell.kind === "data" && !cell.file) ? cellStartInside(cell.source) : undefined;
+    if (cell.kind === "code" || cell.kind === "data") {
+      if (inside) {
+        const fenceLine = cell.origin?.start.line ?? cell.sourceStart.line - 1;
+        return {
+          type: "error",
+          message: `the fence of cell ${cell.id} (line ${fenceLine}) is not closed before line ${fileLine(inside.line)}, which starts another cell (${inside.text}); add the closing fence before line ${fileLine(inside.line)}`,
+          line: fenceLine,
+        };
+      }
+    }
     if (cell.kind === "code") {
       let stripped;
       try {
@@ -228,8 +256,7 @@ async function runCell(
       }
       const outcome = sandbox.evalScript(stripped.code, cellFilename(cell.id), limits.timeLimitMs);
       if (!outcome.ok) return guestErrorOutput(cell, outcome.error, limits, stripped.sourceColumn);
-      const out = outcome.value === undefined ? undefined : displayToOutput(outcome.value);
-      if (out) outputs.push(out);
+      if (outcome.value !== undefined) outputs.push(...displayToOutputs(outcome.value));
       return undefined;
     }
     if (cell.kind === "data") {
@@ -237,6 +264,8 @@ async function runCell(
         return { type: "error", message: `data name "${cell.name}" is not a valid name; use letters, digits and _ (not starting with a digit)`, line: cell.sourceStart.line };
       }
       const text = await dataCellText(cell, readFile);
+      const path = cell.file?.path;
+      dataTexts.set(text, path !== undefined ? (line) => `${path}:${line}` : (line) => `data cell ${cell.id}, line ${fileLine(line)} of the document`);
       const table = parseDataTable(cell.name, text, cell.file ? 1 : cell.sourceStart.line);
       const outcome = sandbox.defineTable(table, limits.timeLimitMs);
       if (!outcome.ok) return guestErrorOutput(cell, outcome.error, limits);

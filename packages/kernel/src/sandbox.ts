@@ -40,6 +40,11 @@ export interface SandboxHooks {
   emit(display: unknown): void;
   /** `control(name, options)`: returns the value the cell gets; throws ArgumentError for bad options. */
   control(name: unknown, options: unknown): number;
+  /**
+   * Where a text a cell passed to the bridge came from, when it is a data cell's CSV: a function from a 1-based
+   * line of the text to its place ("data/obs.csv:10"). Used to add the file and its line to CSV errors.
+   */
+  placeOfText?(text: string): ((line: number) => string) | undefined;
 }
 
 /** Settings of a new sandbox. */
@@ -52,6 +57,21 @@ export interface SandboxOptions {
 function errorMessage(e: unknown): { name: string; message: string } {
   if (e instanceof Error) return { name: e.name, message: e.message };
   return { name: "Error", message: String(e) };
+}
+
+/**
+ * A CSV error whose problems carry a line of the text (`row`) gets each problem restated at its place in the data
+ * file or document ("data/obs.csv:10: column 'depth_to_water_m' (2): the level is missing"); others pass as they are.
+ */
+function withTextPlaces(e: unknown, place: ((line: number) => string) | undefined): unknown {
+  if (!place || !(e instanceof Error) || e.name !== "CsvError") return e;
+  const problems = (e as Error & { problems?: readonly { row?: number; message: string; fix: string }[] }).problems ?? [];
+  const placed = problems.filter((p) => typeof p.row === "number").slice(0, 20);
+  if (placed.length === 0) return e;
+  const lines = placed.map((p) => `${place(p.row!)}: ${p.message.replace(/^row \d+(, |: )?/, "")}. Fix: ${p.fix}.`);
+  const out = new Error(`${e.message}\nWhere in the data:\n${lines.join("\n")}`);
+  out.name = e.name;
+  return out;
 }
 
 /** The guest-facing name of a host error: "aq.expint1: ..." (a message already starting with the bare name keeps one prefix). */
@@ -176,7 +196,11 @@ export class Sandbox {
         throw new ArgumentError(`${guestName} takes ${entry.args.length} argument(s) (${entry.args.map((a) => a.name).join(", ")}), got ${args.length}`);
       }
       const checked = entry.args.map((a, i) => a.validator.check(args[i], `${guestName}: argument ${i + 1} (${a.name})`));
-      return this.newWire((entry.call as (...a: unknown[]) => unknown)(...checked));
+      try {
+        return this.newWire((entry.call as (...a: unknown[]) => unknown)(...checked));
+      } catch (e) {
+        throw withTextPlaces(e, typeof checked[0] === "string" ? this.hooks.placeOfText?.(checked[0]) : undefined);
+      }
     } catch (e) {
       return { error: ctx.newError(bridgeErrorMessage(guestName, e)) };
     }

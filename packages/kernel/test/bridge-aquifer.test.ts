@@ -184,7 +184,7 @@ describe("models and fitting called from a cell", () => {
 
   it("refuses an unknown model id and a well without distance and rate, saying what to give", async () => {
     expect(await errorOf("aq.fitModel({ model: 'theiss', wells: [base1] })")).toBe(
-      'TypeError: aq.fitModel: argument 1 (options), field "model" must be one of "theis", "cooper-jacob", "hantush-jacob", "hantush-aquitard-storage", "thiem", got "theiss"',
+      'TypeError: aq.fitModel: argument 1 (options), field "model": Unknown model "theiss". Known models: theis, cooper-jacob, hantush-jacob, hantush-aquitard-storage, thiem, neuman, papadopulos-cooper, hantush-partial-penetration.',
     );
     expect(await errorOf("aq.fitModel({ model: 'theis', wells: [{ name: 'x', t: base1.t, s: base1.s }] })")).toBe(
       'TypeError: aq.fitModel: argument 1 (options), field "wells", element 0 has no distance and rate; give geometry: { r, Q } (m, m3/d) or r and Q',

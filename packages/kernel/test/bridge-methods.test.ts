@@ -321,7 +321,7 @@ describe("bad arguments to the new bridge functions", () => {
   });
 
   it("pass errors of the host function on with the guest function's name", async () => {
-    const series = `{ name: "OB", times: [1, 2, 4], drawdowns: [0.1, 0.2, 0.3], timeUnit: "min", lengthUnit: "ft", radius: { value: 30, unit: "ft" }, pumpingRate: { value: 100, unit: "gpm" } }`;
+    const series = `{ name: "OB", times: [1, 2, 4], drawdowns: [0.1, 0.2, 0.3], timeUnit: "min", lengthUnit: "ft", radius: { value: 30, unit: "ft" }, pumpingRate: { value: 100, unit: "US gpm" } }`;
     const [unit, stepped] = await errorsOf(
       `aq.fitSeries({ model: "theis", series: [${series}], reportUnits: { T: "ft" } })`,
       `aq.stepEndDrawdowns(${series})`,

@@ -55,6 +55,38 @@ describe("running cells", () => {
     expect(r.outputs.c3).toEqual([]);
   });
 
+  it("shows every display called as a statement, once each, in call order", async () => {
+    const doc = makeDoc([
+      "show.value(1.19, 'm', 'drawdown per log cycle');\nshow.value(0.00123, 'm2/s', 'transmissivity');\nconst done = 1;",
+      "for (const k of [1, 2]) show.value(k, 'm');\nshow(show.json({ k: 3 }));\nshow.table([{ a: 1 }])",
+      "const line = charts.residuals({ t: [1, 2], residual: [0.1, -0.1] });\nshow.value(5);\nshow(line);\nline",
+    ]);
+    const r = await kernel.runDocument(doc);
+    expect(r.outputs.c1).toEqual([
+      { type: "value", value: 1.19, unit: "m", label: "drawdown per log cycle" },
+      { type: "value", value: 0.00123, unit: "m2/s", label: "transmissivity" },
+    ]);
+    expect(r.outputs.c2).toEqual([
+      { type: "value", value: 1, unit: "m" },
+      { type: "value", value: 2, unit: "m" },
+      { type: "json", value: { k: 3 } },
+      { type: "table", columns: [{ name: "a" }], rows: [[1]] },
+    ]);
+    expect(r.outputs.c3!.map((o) => o.type)).toEqual(["chart", "value"]);
+  });
+
+  it("shows a display made in an earlier cell again when a later cell shows it", async () => {
+    const r = await kernel.runDocument(makeDoc(["const v = show.value(2, 'm');", "show(v); v"]));
+    expect(r.outputs.c1).toEqual([{ type: "value", value: 2, unit: "m" }]);
+    expect(r.outputs.c2).toEqual([{ type: "value", value: 2, unit: "m" }]);
+  });
+
+  it("reports a display that cannot be shown at the line of the call", async () => {
+    const doc = makeDoc(["const a = 1;\nshow.table(42);\nconst b = 2;"]);
+    const r = await kernel.runDocument(doc);
+    expect(r.outputs.c1![0]).toMatchObject({ type: "error", line: doc.cells[0]!.sourceStart.line + 1 });
+  });
+
   it("shows values with units, tables and fit parameter tables", async () => {
     const doc = makeDoc([
       "show(show.value(152.4, 'm2/d', 'T'))",

@@ -6,7 +6,7 @@
  */
 import { createObservationSeries, toBaseUnits, type ObservationSeries, type SeriesInBaseUnits, type ValueWithUnit } from "../data/index.js";
 import { fitModel, type FitOptions, type FitResult } from "../fit/index.js";
-import { getModel, type DrawdownModel } from "../models/index.js";
+import { getModel, modelSpecOf, type DrawdownModel, type ModelSpec } from "../models/index.js";
 import { withRateSchedule, type PumpingStep } from "../superposition/index.js";
 import { AnalysisInputError } from "./errors.js";
 import { convertAt, parameterDescriptor, recordToBase, type NumberOrQuantity } from "./unit-values.js";
@@ -16,8 +16,11 @@ export type BoundsWithUnit = readonly [number, number] | { readonly low: number;
 
 /** Options of {@link fitSeries}: the fit options of fitModel, with series and values in their own units. */
 export interface FitSeriesOptions {
-  /** The model, or its id in the registry ("theis", "hantush-jacob", ...). */
-  readonly model: DrawdownModel | string;
+  /**
+   * The model, its id in the registry ("theis", "hantush-jacob", ...), or for a model bound to geometry its id
+   * with options ({ id: "neuman", saturatedThickness: { value: 40, unit: "ft" } }).
+   */
+  readonly model: DrawdownModel | ModelSpec;
   /**
    * One or several series, each in its own time, length, rate and radius units. All share the model parameters.
    * A series whose rate follows a schedule of several steps is fitted by superposition in time (withRateSchedule);
@@ -72,12 +75,11 @@ const WHERE = "fitSeries";
 /** Relative tolerance for two schedules, converted to base units from different units, to count as the same. */
 const SAME_SCHEDULE = 1e-9;
 
-function resolveModel(model: DrawdownModel | string): DrawdownModel {
+function resolveModel(model: DrawdownModel | ModelSpec): DrawdownModel {
   if (typeof model === "string") return getModel(model);
-  if (!model || typeof model.drawdown !== "function" || !Array.isArray(model.parameters)) {
-    throw new AnalysisInputError(`${WHERE}: model must be a drawdown model or a model id such as "theis".`);
-  }
-  return model;
+  if (model && typeof (model as DrawdownModel).drawdown === "function" && Array.isArray((model as DrawdownModel).parameters)) return model as DrawdownModel;
+  if (model && typeof (model as { id?: unknown }).id === "string") return getModel(model as ModelSpec);
+  throw new AnalysisInputError(`${WHERE}: model must be a drawdown model, a model id such as "theis", or { id, ...options } for a model bound to geometry.`);
 }
 
 function sameSchedule(a: SeriesInBaseUnits["steps"], b: SeriesInBaseUnits["steps"]): boolean {
@@ -200,6 +202,7 @@ export function fitSeries(options: FitSeriesOptions): SeriesFitResult {
   const warnings = ignored.length === 0 ? fit.warnings : [...fit.warnings, `reportUnits names ${ignored.join(", ")}, which model "${base.id}" does not have (${list}); ${ignored.length === 1 ? "it was" : "they were"} not used.`];
   return {
     ...fit,
+    modelSpec: modelSpecOf(base),
     warnings,
     table: parameterTable(fit, reportUnits),
     rmseReported: { value: convertAt(WHERE, "lengthUnit", fit.rmse, "m", lengthUnit), unit: lengthUnit },

@@ -6,7 +6,7 @@
 import { isRateSchedule, type PumpingRate, type ValueWithUnit } from "../data/index.js";
 import type { FitParameter, FitResult } from "../fit/index.js";
 import { forecastDrawdown, type ForecastUncertainty, type GivenParameters } from "../forecast/index.js";
-import { getModel, type DrawdownModel } from "../models/index.js";
+import { getModel, type DrawdownModel, type ModelSpec } from "../models/index.js";
 import { convertArray } from "../units/index.js";
 import { AnalysisInputError } from "./errors.js";
 import { convertAt } from "./unit-values.js";
@@ -14,6 +14,8 @@ import { convertAt } from "./unit-values.js";
 /** The parts of a fit result a forecast reads (a FitResult has them all; plain data from a cell may carry just these). */
 export interface ForecastableFit {
   readonly modelId: string;
+  /** The fitted model as a spec (id with geometry options); needed to forecast with a model bound to geometry. */
+  readonly modelSpec?: ModelSpec;
   readonly parameters: readonly Pick<FitParameter, "name" | "estimate">[];
   /** Names of the free parameters, in covariance order. */
   readonly freeParameters: readonly string[];
@@ -31,8 +33,8 @@ export interface DistancePoint {
 export interface ForecastAtOptions {
   /** The fit whose estimates (and covariance, for bands) are used. */
   readonly fit: ForecastableFit | FitResult;
-  /** The model to forecast with; default the fit's model (the base model of a "+schedule" fit). */
-  readonly model?: DrawdownModel | string;
+  /** The model to forecast with (a model or a spec); default the fit's model (the base model of a "+schedule" fit). */
+  readonly model?: DrawdownModel | ModelSpec;
   readonly points: readonly DistancePoint[];
   /** Times since pumping started, in `unit`. */
   readonly times: { readonly values: ArrayLike<number>; readonly unit: string };
@@ -75,8 +77,8 @@ export interface ForecastAtResult {
 const WHERE = "forecastAt";
 
 /** The model to forecast with: the given one, or the fit's model; fits with boundaries or several wells are refused. */
-function forecastModel(fit: ForecastableFit, model: DrawdownModel | string | undefined): DrawdownModel {
-  if (model !== undefined) return typeof model === "string" ? getModel(model) : model;
+function forecastModel(fit: ForecastableFit, model: DrawdownModel | ModelSpec | undefined): DrawdownModel {
+  if (model !== undefined) return typeof model === "object" && typeof (model as DrawdownModel).drawdown === "function" ? (model as DrawdownModel) : getModel(model as ModelSpec);
   const [baseId, wrapper] = fit.modelId.split("+");
   if (wrapper !== undefined && wrapper !== "schedule") {
     throw new AnalysisInputError(
@@ -84,6 +86,8 @@ function forecastModel(fit: ForecastableFit, model: DrawdownModel | string | und
         "boundaries. Use forecastDrawdown with the same wells and boundaries, or pass model explicitly if ignoring them is intended.",
     );
   }
+  const spec = fit.modelSpec;
+  if (spec !== undefined && typeof spec === "object" && spec.id === baseId) return getModel(spec);
   return getModel(baseId!);
 }
 
@@ -153,6 +157,16 @@ export function forecastAt(options: ForecastAtOptions): ForecastAtResult {
     uncertainty: options.uncertainty ?? "none",
   });
   const inUnit = (values: Float64Array | null) => (values === null ? null : convertArray(values, "m", lengthUnit));
+  const notes = [...result.notes];
+  const spec = (model as { spec?: Record<string, unknown> }).spec;
+  const thickness = typeof spec?.saturatedThickness === "number" ? spec.saturatedThickness : typeof spec?.aquiferThickness === "number" ? spec.aquiferThickness : undefined;
+  const largest = Math.max(...result.points.flatMap((p) => Array.from(p.drawdown)));
+  if (thickness !== undefined && largest > thickness) {
+    notes.push(
+      `Plausibility: the forecast drawdown reaches ${Number(largest.toPrecision(3))} m, more than the saturated thickness ${thickness} m: the aquifer ` +
+        "would be dewatered there and the model no longer applies; the forecast overstates what can happen.",
+    );
+  }
   return {
     modelId: model.id,
     method: result.method,
@@ -172,6 +186,6 @@ export function forecastAt(options: ForecastAtOptions): ForecastAtResult {
     uncertainParameters: result.uncertainParameters,
     samples: result.samples,
     seed: result.seed,
-    notes: result.notes,
+    notes,
   };
 }

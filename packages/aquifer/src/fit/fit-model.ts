@@ -3,11 +3,12 @@
  * with shared parameters, with standard errors, 95 % intervals, correlations and information criteria.
  */
 
-import type { DrawdownModel } from "../models/index.js";
+import { modelSpecOf, type DrawdownModel, type ModelSpec } from "../models/index.js";
 import { FitInputError } from "./errors.js";
 import { levenbergMarquardt, type ConvergenceReason, type LeastSquaresProblem } from "./levenberg-marquardt.js";
 import { packWells, weightedResiduals, type ObservationWell, type PackedWell } from "./observations.js";
 import { buildParameterSpace, toFitSpace, toNative, type ParameterSpace } from "./parameter-space.js";
+import { plausibilityNotes } from "./plausibility.js";
 import { deriveStartValues, type StartMethod } from "./start-values.js";
 import { fitSpaceCovariance, informationCriteria } from "./statistics.js";
 import { studentTQuantile } from "./student-t.js";
@@ -90,6 +91,8 @@ export interface WellResiduals {
  */
 export interface FitResult {
   readonly modelId: string;
+  /** The model as a spec (its id, or its id with the geometry options it was made with), for forecasts. */
+  readonly modelSpec: ModelSpec;
   readonly parameters: FitParameter[];
   /** Names of the free parameters: the row and column order of covariance and correlation. */
   readonly freeParameters: string[];
@@ -126,6 +129,8 @@ export interface FitResult {
   readonly jacobianMethod: JacobianMethod;
   readonly start: { readonly values: Record<string, number>; readonly method: StartMethod; readonly notes: string[] };
   readonly warnings: string[];
+  /** Estimates far outside the ranges usually met, or drawdown beyond the saturated thickness (fit/plausibility.ts). */
+  readonly plausibility: string[];
 }
 
 function formatNumber(v: number): string {
@@ -361,6 +366,7 @@ export function fitModel(options: FitOptions): FitResult {
   });
   return {
     modelId: model.id,
+    modelSpec: modelSpecOf(model),
     parameters,
     freeParameters: freeNames,
     covariance,
@@ -384,5 +390,6 @@ export function fitModel(options: FitOptions): FitResult {
     jacobianMethod: method,
     start: { values: startRecord, method: start.method, notes: start.notes },
     warnings,
+    plausibility: plausibilityNotes(model, Object.fromEntries(parameters.map((q) => [q.name, q.estimate])), Math.max(...residuals.flatMap((w) => Array.from(w.observed)))),
   };
 }

@@ -18,6 +18,7 @@ export {
 } from "./levenberg-marquardt.js";
 export { applyQTranspose, householderQr, jacobiSvd, numericalRank, type SmallSvd } from "./linalg.js";
 export type { ObservationWell } from "./observations.js";
+export { plausibilityNotes } from "./plausibility.js";
 export { fitSpaceCovariance, informationCriteria, RANK_TOLERANCE, type FitSpaceCovariance } from "./statistics.js";
 export type { StartMethod } from "./start-values.js";
 export { lnBeta, lnGamma, regularizedIncompleteBeta, studentTCdf, studentTQuantile } from "./student-t.js";

@@ -13,8 +13,9 @@ export class UnknownModelError extends Error {
   override readonly name = "UnknownModelError";
   /** The ids the registry does know, for a message or a suggestion list. */
   readonly knownIds: readonly string[];
-  constructor(id: string, knownIds: readonly string[]) {
-    super(`Unknown model "${id}". Known models: ${knownIds.join(", ")}.`);
+  /** `message` replaces the default one where there is more to say (a method the library lacks, the nearest models). */
+  constructor(id: string, knownIds: readonly string[], message?: string) {
+    super(message ? `${message} Known models: ${knownIds.join(", ")}.` : `Unknown model "${id}". Known models: ${knownIds.join(", ")}.`);
     this.knownIds = knownIds;
   }
 }

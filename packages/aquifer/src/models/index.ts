@@ -34,7 +34,22 @@ export {
   thiemTwoWells,
 } from "./thiem.js";
 export { theisMatchPoint, type TheisMatchPointInput, type TheisMatchPointResult } from "./match-point.js";
-export { getModel, isModelId, modelIds, models, type ModelId } from "./registry.js";
+export {
+  describeModel,
+  getModel,
+  isModelId,
+  modelIds,
+  models,
+  modelSpecOf,
+  type FixedModelId,
+  type GeometryModelId,
+  type ModelDescription,
+  type ModelId,
+  type ModelOptionDescriptor,
+  type ModelSpec,
+  type OptionValue,
+  type SpecifiedModel,
+} from "./registry.js";
 export { startingValues, type StartingValues } from "./starting-values.js";
 export {
   PAPADOPULOS_COOPER_STEHFEST_TERMS,

@@ -8,7 +8,7 @@ import { cooperJacobLine, type CooperJacobLineResult } from "./cooper-jacob.js";
 import { checkGeometry } from "./checks.js";
 import { ModelInputError } from "./errors.js";
 import type { DrawdownModel, ObservationGeometry } from "./model.js";
-import { getModel } from "./registry.js";
+import { getModel, type ModelSpec } from "./registry.js";
 
 /** Starting parameter vector and how it was obtained. */
 export interface StartingValues {
@@ -29,6 +29,10 @@ function clamp(model: DrawdownModel, k: number, v: number, notes: string[]): num
     return c;
   }
   return v;
+}
+
+function isDrawdownModel(m: DrawdownModel | ModelSpec): m is DrawdownModel {
+  return typeof m === "object" && m !== null && typeof (m as DrawdownModel).drawdown === "function";
 }
 
 /** Steps of the two type-curve search passes, in log10 units (factors 1.58 and 1.12). */
@@ -139,24 +143,27 @@ function hantushTypeCurveSearch(
 }
 
 /**
- * Starting values for `model` (a model or its id) from drawdown s (m) at times t (d) at the given geometry:
+ * Starting values for `model` (a model, its id, or its id with geometry options: a model spec) from drawdown s (m) at times t (d) at the given geometry:
  * - theis, cooper-jacob: T and S of the Cooper-Jacob line on the points with u <= uMax;
  * - hantush-jacob: T, S and B of the best point of a type-curve search over u and r/B (final grid
  *   factor 1.12 in each), since levelling-off makes the late straight line too flat;
  * - thiem: T of the Cooper-Jacob line; R from the drawdown at the latest time, R = r exp(2 pi T s / Q);
+ * - neuman: T of the Cooper-Jacob line on the late data and Sy from its S (late data follow Theis with S + Sy),
+ *   S = Sy / 100 and Kz/Kr = 0.1 (common practice, no source: elastic storage two orders below Sy, a vertical
+ *   conductivity a tenth of the horizontal one);
  * - any other model whose parameters begin with T and S (well-bore storage, partial penetration...): T and S
  *   of the Cooper-Jacob line, further parameters at the geometric middle of their bounds.
  * Values outside the descriptor bounds are moved to the nearest bound, with a note.
  * @throws ModelInputError when the record has too few usable points or no line or curve matches it.
  */
 export function startingValues(
-  model: DrawdownModel | string,
+  model: DrawdownModel | ModelSpec,
   geometry: ObservationGeometry,
   t: ArrayLike<number>,
   s: ArrayLike<number>,
   options: { readonly uMax?: number } = {},
 ): StartingValues {
-  const m = typeof model === "string" ? getModel(model) : model;
+  const m = isDrawdownModel(model) ? model : getModel(model);
   checkGeometry(`startingValues for ${m.name}`, geometry);
   if (m.id === "hantush-jacob") {
     const g = hantushTypeCurveSearch(t, s, geometry);
@@ -179,6 +186,11 @@ export function startingValues(
     case "theis":
     case "cooper-jacob":
       return { values: Float64Array.of(T, clamp(m, 1, line.S, notes)), line, notes };
+    case "neuman": {
+      const Sy = clamp(m, 2, line.S, notes);
+      notes.push("Sy from the line's S (late data follow Theis with S + Sy); S = Sy / 100 and KzKr = 0.1 as first guesses (common practice, no source).");
+      return { values: Float64Array.of(T, clamp(m, 1, Sy / 100, notes), Sy, clamp(m, 3, 0.1, notes)), line, notes };
+    }
     case "thiem": {
       const last = line.used[line.used.length - 1]!;
       const R = geometry.r * Math.exp((2 * Math.PI * T * s[last]!) / geometry.Q);
@@ -203,7 +215,7 @@ export function startingValues(
       }
       throw new ModelInputError(
         `startingValues: no starting-value rule for model "${m.id}"; supported: theis, cooper-jacob, ` +
-          "hantush-jacob, thiem and models whose first parameters are T and S. Give starting values explicitly.",
+          "hantush-jacob, thiem, neuman and models whose first parameters are T and S. Give starting values explicitly.",
       );
     }
   }

@@ -18,7 +18,7 @@ export interface StepReading {
 
 /** Steps of a step-drawdown test with the units of their numbers. */
 export interface StepDrawdownInput {
-  /** Discharge unit of every rate, e.g. "m3/d", "L/s", "gpm". */
+  /** Discharge unit of every rate, e.g. "m3/d", "L/s", "US gpm". */
   readonly rateUnit: string;
   /** Length unit of every drawdown, e.g. "m", "ft". */
   readonly drawdownUnit: string;

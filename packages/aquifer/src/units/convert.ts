@@ -7,6 +7,7 @@
 import { DIMENSIONS, dimensionLabel, dimensionPhrase, sameDimension } from "./dimension.js";
 import type { Dimension, DimensionVector } from "./dimension.js";
 import { UnitError } from "./errors.js";
+import { errorForDimension } from "./dimension-suggestions.js";
 import { resolveUnit } from "./parse.js";
 import type { Unit } from "./parse.js";
 
@@ -39,10 +40,26 @@ export function fromBase(value: number, unit: string | Unit): number {
   return value / resolveUnit(unit).factor;
 }
 
+/** `unit` parsed; when it is unknown and `other` parses, the suggestions are of `other`'s dimension first. */
+function resolveAgainst(unit: string | Unit, other: string | Unit): Unit {
+  try {
+    return resolveUnit(unit);
+  } catch (e) {
+    if (!(e instanceof UnitError) || typeof unit !== "string") throw e;
+    let expected: Unit;
+    try {
+      expected = resolveUnit(other);
+    } catch {
+      throw e;
+    }
+    throw errorForDimension(unit, expected.dimension, e);
+  }
+}
+
 /** Both units parsed, after checking they share a dimension. */
 function checkedPair(from: string | Unit, to: string | Unit): [Unit, Unit] {
-  const source = resolveUnit(from);
-  const target = resolveUnit(to);
+  const source = resolveAgainst(from, to);
+  const target = resolveAgainst(to, source);
   if (!sameDimension(source.dimension, target.dimension)) {
     throw new UnitError(`cannot convert ${describeUnit(source)} to ${describeUnit(target)}`);
   }
@@ -50,7 +67,7 @@ function checkedPair(from: string | Unit, to: string | Unit): [Unit, Unit] {
 }
 
 /**
- * `value` in unit `from` expressed in unit `to`, e.g. convert(1, "gpm", "m3/d") = 5.45099296896.
+ * `value` in unit `from` expressed in unit `to`, e.g. convert(1, "US gpm", "m3/d") = 5.45099296896.
  * @throws UnitError when the dimensions differ: "cannot convert a length (m) to a time (min)".
  */
 export function convert(value: number, from: string | Unit, to: string | Unit): number {
@@ -97,7 +114,7 @@ export function baseUnitOf(dimension: Dimension | DimensionVector): string {
   return (numerator.length > 0 ? numerator.join("·") : "1") + denominator.join("");
 }
 
-/** True when `unit` has the named dimension, e.g. isDimension("gpm", "discharge") is true. */
+/** True when `unit` has the named dimension, e.g. isDimension("US gpm", "discharge") is true. */
 export function isDimension(unit: string | Unit, dimension: Dimension): boolean {
   return sameDimension(resolveUnit(unit).dimension, DIMENSIONS[dimension]);
 }
@@ -108,7 +125,13 @@ export function isDimension(unit: string | Unit, dimension: Dimension): boolean 
  * @throws UnitError "expected a length for the drawdown column, in a unit such as 'm', got 'L/s' (a discharge)".
  */
 export function requireDimension(unit: string | Unit, dimension: Dimension, what?: string): Unit {
-  const resolved = resolveUnit(unit);
+  let resolved: Unit;
+  try {
+    resolved = resolveUnit(unit);
+  } catch (e) {
+    if (e instanceof UnitError && typeof unit === "string") throw errorForDimension(unit, dimension, e);
+    throw e;
+  }
   if (!sameDimension(resolved.dimension, DIMENSIONS[dimension])) {
     const purpose = what === undefined ? "" : ` for ${what}`;
     const got = dimensionPhrase(resolved.dimension);

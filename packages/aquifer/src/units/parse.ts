@@ -1,5 +1,5 @@
 /**
- * Parsing unit text as the trade writes it ("m3/d", "L/s", "gpm", "US gal/d/ft", "m^2/s", "ftH2O") into a
+ * Parsing unit text as the trade writes it ("m3/d", "L/s", "US gpm", "US gal/d/ft", "m^2/s", "ftH2O") into a
  * `Unit`: its dimension and its factor to the library's base units (m, d; pressure in Pa).
  *
  * Grammar, after trimming and collapsing whitespace:
@@ -48,7 +48,7 @@ const cache = new Map<string, Unit>();
 /**
  * Parse unit text into a Unit. Case-sensitive ("M" is not "m"); whitespace-tolerant ("m3 / d").
  * @throws UnitError naming the text, with close known symbols when there are any
- *   ("unknown unit 'gmp' — did you mean 'gpm'?").
+ *   ("unknown unit 'gmp' — did you mean 'US gpm' or 'imp gpm'?").
  */
 export function parseUnit(text: string): Unit {
   if (typeof text !== "string") {
@@ -212,19 +212,21 @@ class UnitParser {
   private unknownUnitError(): UnitError {
     const words = this.wordsAhead(3);
     const first = words[0];
-    const advice = AMBIGUOUS[first];
-    if (advice !== undefined) return new UnitError(`${advice} (in '${this.text}')`, ["US gal"]);
+    const ambiguous = Object.hasOwn(AMBIGUOUS, first) ? AMBIGUOUS[first] : undefined;
+    if (ambiguous !== undefined) return new UnitError(`${ambiguous.advice} (in '${this.text}')`, ambiguous.instead);
     const candidates = knownUnitSymbols();
     for (let count = words.length; count >= 1; count--) {
       const span = words.slice(0, count).join(" ");
-      const suggestions = closeMatches(span, candidates);
+      const near = closeMatches(span, [...candidates, ...Object.keys(AMBIGUOUS)]);
+      const suggestions = [...new Set(near.flatMap((c) => (Object.hasOwn(AMBIGUOUS, c) ? AMBIGUOUS[c]!.instead : [c])))];
       if (suggestions.length > 0) {
         return new UnitError(`unknown unit '${span}'${this.inWhole(span)} — did you mean ${quoteList(suggestions)}?`, suggestions);
       }
     }
     return new UnitError(
-      `unknown unit '${first}'${this.inWhole(first)}; known units include m, cm, ft, in, s, min, h, d, L, US gal, ` +
-        `gpm, gpd, cfs, Pa, kPa, psi, mH2O, ftH2O, and products and quotients of them such as m3/d, L/s, m2/d, ft/d`,
+      `unknown unit '${first}'${this.inWhole(first)}; known units include m, cm, ft, in, s, min, h, d, L, ML, US gal, ` +
+        `imp gal, US gpm, imp gpm, US gpd, US MGD, cfs, Pa, kPa, psi, mH2O, ftH2O, darcy, mD, and products and ` +
+        `quotients of them such as m3/d, L/s, ML/d, m2/d, m2/s, ft2/d, US gpd/ft, ft/d`,
     );
   }
 

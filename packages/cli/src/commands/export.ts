@@ -100,7 +100,7 @@ const MAX_DETAILS = 30;
 /** Runs the document and compares with the record: the verification block of the report, and the fresh outputs. */
 async function verifyForReport(loaded: LoadedDocument, io: Io): Promise<{ verification: Verification; fresh: Record<string, CellOutput[]> }> {
   const doc: ConebookDocument = loaded.document;
-  const result = await execute(loaded, runOverrides(recordedControlValues(doc), doc.header.parameters, {}), io);
+  const result = await execute(loaded, runOverrides(doc.header.parameters, {}), io, recordedControlValues(doc));
   const fresh = result.outputs;
   if (doc.header.libraryVersion === undefined) {
     return { verification: { state: "skipped", summary: "the document has no recorded outputs to compare the run with (no recordedWith in its header)." }, fresh };

@@ -20,23 +20,30 @@ export const NEW_OPTIONS: readonly OptionSpec[] = [
   { name: "set", kind: "list" },
   { name: "data", kind: "list" },
   { name: "force", kind: "flag" },
+  { name: "title", kind: "value" },
 ];
 
-export const NEW_HELP = `Usage: conebook new TEMPLATE -o FILE [--set name=value ...] [--data slot=path ...] [--force]
+export const NEW_HELP = `Usage: conebook new TEMPLATE -o FILE [--title TEXT] [--set name=value ...] [--data slot=path ...] [--force]
 
 Writes a new document FILE from the document TEMPLATE: header parameters take the values given with --set
 (checked against their type, unit and range), each data slot is bound to a CSV file given with --data, and all
 recorded outputs are cleared. A data file inside FILE's folder is referred to where it is; any other is copied
 to data/NAME beside FILE. Either way it is pinned by its SHA-256.
 
+A parameter the template marks required (its value is only the demonstration's) must be given with --set;
+every other value kept from the template is named on standard error and in a note at the top of FILE.
+{{name}} in the title and the narrative becomes the parameter's value; narrative cells whose id starts with
+"template-" (the template describing itself and its demonstration data) are left out.
+
 Options:
   -o, --output FILE     the document to write (refused if it exists, unless --force)
+  --title TEXT          the new document's title (default: the template's, placeholders filled)
   --set name=value      a value for a template parameter; a number may carry a unit (--set rate=8L/s)
   --data slot=path      the CSV file for a data slot declared in the template's header
   --force               overwrite FILE (and a different file of the same name under data/)
   --help                show this help
 
-Exit codes: 0 written; 2 usage or input error (nothing written).`;
+Exit codes: 0 written; 2 usage or input error, or a required parameter not given (nothing written).`;
 
 async function exists(path: string): Promise<boolean> {
   try {
@@ -77,6 +84,25 @@ function headerColumns(text: string): string[] {
   return first.split(sepChar).map((c) => c.trim().replace(/^"(.*)"$/, "$1"));
 }
 
+/** `value` with `fill` applied to every string in it (objects and arrays copied, other values kept). */
+function fillStrings<T>(value: T, fill: (text: string) => string): T {
+  if (typeof value === "string") return fill(value) as T;
+  if (Array.isArray(value)) return value.map((v) => fillStrings(v, fill)) as T;
+  if (value !== null && typeof value === "object") {
+    return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, fillStrings(v, fill)])) as T;
+  }
+  return value;
+}
+
+/** `base`, or `base-2`, `base-3`, ... when a cell already has that id. */
+function uniqueId(cells: readonly Cell[], base: string): string {
+  const ids = new Set(cells.map((c) => c.id));
+  if (!ids.has(base)) return base;
+  let k = 2;
+  while (ids.has(`${base}-${k}`)) k++;
+  return `${base}-${k}`;
+}
+
 /** Runs the command; returns the exit code. */
 export async function newCommand(argv: readonly string[], io: Io): Promise<number> {
   const args = parseArgs(argv, NEW_OPTIONS, "new");
@@ -103,7 +129,38 @@ export async function newCommand(argv: readonly string[], io: Io): Promise<numbe
     return pos[`dataSlots.${i}.name`] ?? pos["dataSlots"] ?? { line: 1, column: 1 };
   };
 
-  const cells: Cell[] = template.document.cells.map((c) => ({ ...c, outputs: [] }));
+  const given = new Set(settings.map((s) => s.name));
+  const paramAt = (i: number): Position => pos[`parameters.${i}.value`] ?? pos["parameters"] ?? { line: 1, column: 1 };
+  const missing = template.document.header.parameters
+    .map((p, i) => ({ p, i }))
+    .filter(({ p }) => p.required === true && !given.has(p.name));
+  if (missing.length > 0) {
+    throw new InputError(
+      missing
+        .map(({ p, i }) => {
+          const at = paramAt(i);
+          return `${place(template.shown, at.line, at.column)}: parameter "${p.name}"${p.unit ? ` (${p.unit})` : ""} must be given: the template's ${JSON.stringify(p.value)} is its demonstration value; add --set ${p.name}=VALUE`;
+        })
+        .join("\n"),
+    );
+  }
+  const kept: string[] = [];
+  applied.parameters.forEach((p, i) => {
+    if (given.has(p.name)) return;
+    const at = paramAt(i);
+    const shown = `${p.value}${p.unit ? ` ${p.unit}` : ""}`;
+    io.err(`${place(template.shown, at.line, at.column)}: warning: parameter "${p.name}" keeps the template's value ${shown}; give --set ${p.name}=VALUE if that is not your test's`);
+    kept.push(`parameter \`${p.name}\` keeps the template's value ${shown}`);
+  });
+  const values = new Map(applied.parameters.map((p) => [p.name, `${p.value}${typeof p.value === "number" && p.unit ? ` ${p.unit}` : ""}`]));
+  const fill = (text: string): string => text.replace(/\{\{\s*([A-Za-z_][A-Za-z0-9_]*)\s*\}\}/g, (whole, name: string) => values.get(name) ?? whole);
+  const titleOption = args.values.get("title");
+  const title = titleOption ?? fill(template.document.header.title);
+  if (titleOption === undefined) kept.push(`the title is the template's (${JSON.stringify(title)}); change it in the header or give --title`);
+
+  const cells: Cell[] = template.document.cells
+    .filter((c) => !(c.kind === "narrative" && c.id.startsWith("template-")))
+    .map((c) => (c.kind === "narrative" ? { ...c, source: fill(c.source), outputs: [] } : { ...c, outputs: [] }));
   const copies: { from: string; to: string }[] = [];
   const bound: string[] = [];
   for (const b of bindings) {
@@ -150,11 +207,31 @@ export async function newCommand(argv: readonly string[], io: Io): Promise<numbe
     if (!cell || cell.file) {
       throw new InputError(`${place(template.shown, at.line, at.column)}: data slot "${slot.name}" needs a file; add --data ${slot.name}=PATH`);
     }
-    io.err(`${place(template.shown, cellLine(cell))}: note: data slot "${slot.name}" keeps the template's inline rows; give --data ${slot.name}=PATH to use your own`);
+    io.err(`${place(template.shown, cellLine(cell))}: warning: data slot "${slot.name}" keeps the template's inline rows (its demonstration data); give --data ${slot.name}=PATH to use your own`);
+    kept.push(`data slot \`${slot.name}\` keeps the template's inline rows (its demonstration data)`);
+  }
+  const { libraryVersion: _recorded, ...header } = template.document.header;
+  const testInformation = header.testInformation === undefined ? undefined : fillStrings(header.testInformation, fill);
+  if (testInformation !== undefined) {
+    kept.push("the test information in the header (dates, wells with distances and screens, rates, analyst, reviewer) is the template's, with its placeholders filled; replace it with this test's");
+    io.err(`${place(template.shown, (pos["testInformation"] ?? { line: 1 }).line)}: warning: the test information in the header is the template's; replace it with this test's`);
+  }
+  if (kept.length > 0) {
+    const note: Cell = {
+      kind: "narrative",
+      id: uniqueId(cells, "author-notes"),
+      source: [`> **For the author** (from \`conebook new\` with the template ${template.shown}): check these, then delete this note.`, ">", ...kept.map((k) => `> - ${k}`)].join("\n"),
+      sourceStart: { line: 1, column: 1 },
+      outputs: [],
+    };
+    cells.unshift(note);
   }
 
-  const { libraryVersion: _recorded, ...header } = template.document.header;
-  const doc: ConebookDocument = { ...template.document, header: { ...header, parameters: applied.parameters }, cells };
+  const doc: ConebookDocument = {
+    ...template.document,
+    header: { ...header, title, parameters: applied.parameters, ...(testInformation === undefined ? {} : { testInformation }) },
+    cells,
+  };
   const problems = validateDocument(doc, { file: outShown }).filter((d) => d.severity === "error");
   if (problems.length > 0) throw new InputError(problems.map((d) => `${place(outShown, d.line, d.column)}: ${d.message}`).join("\n"));
   let text: string;
@@ -169,7 +246,7 @@ export async function newCommand(argv: readonly string[], io: Io): Promise<numbe
     await writeFileAtomic(c.to, new Uint8Array(await readFile(c.from)));
   }
   await writeFileAtomic(outPath, text);
-  const values = applied.parameters.map((p) => `${p.name}=${p.value}${p.unit ? ` ${p.unit}` : ""}`);
-  io.out(`wrote ${outShown} from ${template.shown}${values.length ? `; parameters ${values.join(", ")}` : ""}${bound.length ? `; data ${bound.join(", ")}` : ""}`);
+  const list = applied.parameters.map((p) => `${p.name}=${p.value}${p.unit ? ` ${p.unit}` : ""}`);
+  io.out(`wrote ${outShown} from ${template.shown}${list.length ? `; parameters ${list.join(", ")}` : ""}${bound.length ? `; data ${bound.join(", ")}` : ""}`);
   return EXIT.ok;
 }

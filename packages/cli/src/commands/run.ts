@@ -10,7 +10,7 @@ import { onePositional, parseArgs, type OptionSpec } from "../args.js";
 import { writeFileAtomic } from "../atomic-write.js";
 import { EXIT, InputError, place } from "../errors.js";
 import { cellLine, execute } from "../execute.js";
-import { outputsDigest } from "../format.js";
+import { headlineLines, outputsDigest, tableLines } from "../format.js";
 import type { Io } from "../io.js";
 import { checkPins, loadDocument, pinChangedMessage, type LoadedDocument } from "../load.js";
 import { applySettings, checkParameterUnits, checkPendingSettings, parseSettings, recordedControlValues, runOverrides } from "../settings.js";
@@ -20,9 +20,11 @@ export const RUN_OPTIONS: readonly OptionSpec[] = [
   { name: "write", kind: "flag" },
   { name: "json", kind: "flag" },
   { name: "set", kind: "list" },
+  { name: "fresh", kind: "flag" },
+  { name: "show", kind: "flag" },
 ];
 
-export const RUN_HELP = `Usage: conebook run FILE [--write] [--json] [--set name=value ...]
+export const RUN_HELP = `Usage: conebook run FILE [--write] [--json] [--show] [--fresh] [--set name=value ...]
 
 Runs every cell of the document FILE in order and prints, per cell, its id, kind, status, time and a one-line
 digest of its outputs; errors are shown as file:line:column.
@@ -31,8 +33,12 @@ Options:
   --write             record the outputs (and the values used) into FILE; the file is replaced atomically and
                       only when every cell ran without error
   --json              print the result as JSON instead of the summary
+  --show              print every table in full below its cell (the summary shows the estimates of fits and
+                      tests, with their 95 % intervals, in any case)
   --set name=value    a new value for a template parameter or a control; a number may carry a unit, which is
                       converted (--set rate=8L/s); repeat for several values
+  --fresh             ignore the control values recorded in FILE: every control takes its default in the code
+                      (or --set); with --write the recorded values are replaced
   --help              show this help
 
 Exit codes: 0 every cell ran; 1 a cell failed; 2 usage or input error (nothing written).`;
@@ -46,20 +52,25 @@ export async function runCommand(argv: readonly string[], io: Io): Promise<numbe
   for (const w of loaded.warnings) io.err(`${place(w.file ?? loaded.shown, w.line, w.column)}: warning: ${w.message}`);
   const { changed } = await checkPins(loaded);
   if (changed.length > 0) {
-    throw new InputError(
-      `${changed.map((c) => pinChangedMessage(loaded.shown, c)).join("\n")}\nRestore the file, or pin the new bytes if the change is intended.`,
-    );
+    for (const c of changed) io.err(pinChangedMessage(loaded.shown, c));
+    io.err(`${loaded.shown} was not run: restore the file, or if the change is intended re-pin it with conebook pin ${loaded.shown}`);
+    return EXIT.checkFailed;
   }
   checkParameterUnits(loaded.document, loaded.shown);
   const applied = applySettings(loaded.document, loaded.shown, settings, true);
-  const overrides = runOverrides(recordedControlValues(loaded.document), applied.parameters, applied.controls);
-  const result = await execute(loaded, overrides, io);
+  const overrides = runOverrides(applied.parameters, applied.controls);
+  const result = await execute(loaded, overrides, io, args.flags.has("fresh") ? {} : recordedControlValues(loaded.document));
+  const cellsById = new Map(loaded.document.cells.map((c) => [c.id, c]));
+  for (const note of result.notes) {
+    const cell = cellsById.get(note.cellId);
+    io.err(`${cell ? place(loaded.shown, cellLine(cell)) : loaded.shown}: note: ${note.message}`);
+  }
   checkPendingSettings(loaded.shown, applied.pending, result.unusedOverrides, result.outputs, result.controlsUsed.map((c) => c.output.name));
   unknownChartReference(loaded, result);
   const failed = Object.entries(result.status).filter(([, s]) => s === "error").map(([id]) => id);
 
   if (args.flags.has("json")) io.out(JSON.stringify(runJson(loaded, result), null, 2));
-  else printSummary(loaded, result, io);
+  else printSummary(loaded, result, io, args.flags.has("show"));
 
   if (args.flags.has("write")) {
     if (failed.length > 0) {
@@ -94,7 +105,7 @@ function unknownChartReference(loaded: LoadedDocument, result: RunResult): void 
   }
 }
 
-function printSummary(loaded: LoadedDocument, result: RunResult, io: Io): void {
+function printSummary(loaded: LoadedDocument, result: RunResult, io: Io, full: boolean): void {
   const executable = loaded.document.cells.filter((c) => c.kind !== "narrative");
   const idWidth = Math.min(24, Math.max(4, ...executable.map((c) => c.id.length)));
   io.out(`${loaded.shown}: ${loaded.document.header.title}`);
@@ -106,6 +117,10 @@ function printSummary(loaded: LoadedDocument, result: RunResult, io: Io): void {
     let digest = outputsDigest(outputs);
     if (cell.kind === "data") digest = cell.file ? `data "${cell.name}" from ${cell.file.path}` : `data "${cell.name}" (inline)`;
     io.out(`  ${status.padEnd(7)} ${cell.kind.padEnd(5)} ${cell.id.padEnd(idWidth)} ${`${ms.toFixed(0)} ms`.padStart(8)}  ${digest}`);
+    for (const o of outputs) {
+      if (full && o.type === "table") for (const line of tableLines(o)) io.out(line);
+      else for (const line of headlineLines(o)) io.out(line);
+    }
     for (const o of outputs) {
       if (o.type === "error") errors.push(`${place(loaded.shown, o.line ?? cellLine(cell), o.line === undefined ? undefined : o.column)}: error in cell ${cell.id}: ${o.message}`);
     }
@@ -137,6 +152,7 @@ export function runJson(loaded: LoadedDocument, result: RunResult): unknown {
       })),
     controlsUsed: result.controlsUsed.map((c) => ({ cellId: c.cellId, ...c.output })),
     unusedOverrides: result.unusedOverrides,
+    notes: result.notes,
     timings: { totalMs: result.timings.totalMs, sandboxStartMs: result.timings.sandboxStartMs },
   };
 }

@@ -85,12 +85,12 @@ export async function verifyCommand(argv: readonly string[], io: Io): Promise<nu
   const { changed } = await checkPins(loaded);
   if (changed.length > 0) {
     for (const c of changed) io.out(pinChangedMessage(loaded.shown, c));
-    io.out(`${loaded.shown}: not verified: ${changed.length} data file${changed.length === 1 ? "" : "s"} changed, so the recorded outputs no longer describe the data; restore the file or rerun with --write after pinning it`);
+    io.out(`${loaded.shown}: not verified: ${changed.length} data file${changed.length === 1 ? "" : "s"} changed, so the recorded outputs no longer describe the data; restore the file, or if the change is intended re-pin it with conebook pin ${loaded.shown} and rerun with --write`);
     return EXIT.checkFailed;
   }
 
   const recorded = recordedOutputs(doc);
-  const result = await execute(loaded, runOverrides(recordedControlValues(doc), doc.header.parameters, {}), io);
+  const result = await execute(loaded, runOverrides(doc.header.parameters, {}), io, recordedControlValues(doc));
   const diffs = compareOutputs(recorded, result.outputs, { rtol, atol });
   const refProblems = referenceProblems(doc, result.outputs, recorded, { rtol, atol });
   const refCount = doc.cells.reduce((n, c) => n + (c.kind === "narrative" ? findReferences(c.source).length : 0), 0);
