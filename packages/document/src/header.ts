@@ -15,14 +15,6 @@ import type { DataSlot, Diagnostic, DocumentHeader, Position, TemplateParameter 
 
 /** The newest format version this package reads and writes. */
 export const FORMAT_VERSION = 1;
-/** Default wall-clock limit per cell, ms, used when the header gives none. */
-export const DEFAULT_CELL_TIME_LIMIT_MS = 10_000;
-/** Largest wall-clock limit per cell a header may ask for, ms (10 minutes). */
-export const MAX_CELL_TIME_LIMIT_MS = 600_000;
-/** Default sandbox memory limit, MiB, used when the header gives none. */
-export const DEFAULT_MEMORY_LIMIT_MB = 256;
-/** Largest sandbox memory limit a header may ask for, MiB. */
-export const MAX_MEMORY_LIMIT_MB = 4096;
 
 /**
  * Options for every YAML text this package writes: no line folding, and double-quoted strings on one line

@@ -34,14 +34,8 @@ export { DocumentError, formatDiagnostic } from "./errors.js";
 export { messages } from "./messages.js";
 export { renderNarrative } from "./render.js";
 export { sha256Hex, utf8Bytes } from "./sha256.js";
-export {
-  FORMAT_VERSION,
-  DEFAULT_CELL_TIME_LIMIT_MS,
-  MAX_CELL_TIME_LIMIT_MS,
-  DEFAULT_MEMORY_LIMIT_MB,
-  MAX_MEMORY_LIMIT_MB,
-  HEADER_KEYS,
-} from "./header.js";
+export { FORMAT_VERSION, HEADER_KEYS } from "./header.js";
+export { DEFAULT_CELL_TIME_LIMIT_MS, MAX_CELL_TIME_LIMIT_MS, DEFAULT_MEMORY_LIMIT_MB, MAX_MEMORY_LIMIT_MB } from "./limits.js";
 export { headerSchema, chartSpecSchema } from "./schema.js";
 export { validateJsonSchema } from "./json-schema.js";
 export type { JsonSchema, SchemaProblem } from "./json-schema.js";

@@ -5,7 +5,8 @@
  */
 
 import { diagnostic } from "./errors.js";
-import { FORMAT_VERSION, MAX_CELL_TIME_LIMIT_MS, MAX_MEMORY_LIMIT_MB } from "./header.js";
+import { FORMAT_VERSION } from "./header.js";
+import { MAX_CELL_TIME_LIMIT_MS, MAX_MEMORY_LIMIT_MB } from "./limits.js";
 import { messages } from "./messages.js";
 import { outputShapeProblem } from "./outputs.js";
 import { chartSpecSchema } from "./schema.js";

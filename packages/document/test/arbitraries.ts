@@ -104,7 +104,7 @@ export const headerArb: fc.Arbitrary<DocumentHeader> = fc
     seed: fc.integer(),
     libraryVersion: fc.option(fc.constantFrom("0.1.0", "1.2.3-beta.1"), { nil: undefined }),
     timeLimitMs: fc.option(fc.integer({ min: 1, max: 600000 }), { nil: undefined }),
-    memoryLimitMb: fc.option(fc.integer({ min: 1, max: 4096 }), { nil: undefined }),
+    memoryLimitMb: fc.option(fc.integer({ min: 1, max: 1024 }), { nil: undefined }),
     parameters: fc.uniqueArray(paramArb, { selector: (p) => p.name, maxLength: 3 }),
     dataSlots: fc.option(fc.array(fc.record({ name: fc.string({ minLength: 1 }), description: fc.string() }), { maxLength: 2 }), { nil: undefined }),
     extra: fc.dictionary(fc.stringMatching(/^[a-z][a-zA-Z0-9]{0,6}$/).filter((k) => !(HEADER_KEYS as readonly string[]).includes(k)), fc.jsonValue(), { maxKeys: 3 }),
