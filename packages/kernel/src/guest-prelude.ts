@@ -254,7 +254,7 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     s2 ^= s0; s3 ^= s1; s1 ^= s2; s0 ^= s3; s2 ^= t; s3 = rotl(s3, 11);
     return result / 4294967296;
   }
-  defineProperty(Math, "random", { value: random, writable: true, configurable: true });
+  defineProperty(Math, "random", { value: random, writable: false, configurable: false });
 
   // Date without a clock and without a time zone: reading the current time is refused, and every "local"
   // method is its UTC twin, so outputs never depend on when or where the document runs.
@@ -307,7 +307,72 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   for (let i = 0; i < textMethods.length; i++) {
     defineProperty(P, textMethods[i], { value: asIso, writable: true, configurable: true });
   }
-  defineProperty(G, "Date", { value: SandboxDate, writable: true, configurable: true });
+  freeze(SandboxDate);
+  defineProperty(G, "Date", { value: SandboxDate, writable: false, configurable: false });
+
+  // QuickJS lets Object.defineProperty, Object.defineProperties and Reflect.defineProperty change a
+  // non-configurable property of the global object (elsewhere it refuses, as the language requires), which would
+  // let a cell replace aq, show, control or a data table. These wrappers refuse such a change on the global
+  // object as the language does on any other object; every other call goes to the original unchanged.
+  function lockGlobalDefinitions() {
+    const getOwnDescriptor = Object.getOwnPropertyDescriptor, create = Object.create, ownKeys = Reflect.ownKeys;
+    const nativeDefine = Object.defineProperty, nativeDefineAll = Object.defineProperties, reflectDefine = Reflect.defineProperty;
+    const Str = String, isEnumerable = Function.prototype.call.bind(Object.prototype.propertyIsEnumerable);
+    const FIELDS = ["enumerable", "configurable", "value", "writable", "get", "set"];
+    // The descriptor read once (as ToPropertyDescriptor reads it) into an object without a prototype.
+    function descriptorOf(d) {
+      if (d === null || (typeof d !== "object" && typeof d !== "function")) throw new TypeErr("Property description must be an object");
+      const c = create(null);
+      for (let i = 0; i < FIELDS.length; i++) if (FIELDS[i] in d) c[FIELDS[i]] = d[FIELDS[i]];
+      return c;
+    }
+    const same = (a, b) => a === b ? a !== 0 || 1 / a === 1 / b : a !== a && b !== b;
+    // True when defining d on key of the global object would change a non-configurable property.
+    function changesLocked(key, d) {
+      const cur = getOwnDescriptor(G, key);
+      if (!cur || cur.configurable) return false;
+      if (d.configurable === true || ("enumerable" in d && !d.enumerable !== !cur.enumerable)) return true;
+      const accessor = "get" in d || "set" in d;
+      if ("value" in cur) {
+        if (accessor) return true;
+        if (cur.writable) return false;
+        return d.writable === true || ("value" in d && !same(d.value, cur.value));
+      }
+      if ("value" in d || "writable" in d) return true;
+      return ("get" in d && d.get !== cur.get) || ("set" in d && d.set !== cur.set);
+    }
+    const keyOf = (k) => (typeof k === "symbol" ? k : Str(k));
+    const refusal = (key) => new TypeErr("cannot redefine property: " + Str(key) + " (the sandbox installs it and keeps it as installed)");
+    const methods = {
+      defineProperty(o, key, d) {
+        if (o !== G) return nativeDefine(o, key, d);
+        const k = keyOf(key), c = descriptorOf(d);
+        if (changesLocked(k, c)) throw refusal(k);
+        return nativeDefine(o, k, c);
+      },
+      defineProperties(o, props) {
+        if (o !== G) return nativeDefineAll(o, props);
+        const keys = ownKeys(props), all = create(null);
+        for (let i = 0; i < keys.length; i++) {
+          if (!isEnumerable(props, keys[i])) continue;
+          const c = descriptorOf(props[keys[i]]);
+          if (changesLocked(keys[i], c)) throw refusal(keys[i]);
+          all[keys[i]] = c;
+        }
+        return nativeDefineAll(o, all);
+      },
+      reflectDefine(o, key, d) {
+        if (o !== G) return reflectDefine(o, key, d);
+        const k = keyOf(key), c = descriptorOf(d);
+        return changesLocked(k, c) ? false : reflectDefine(o, k, c);
+      },
+    };
+    defineProperty(methods.reflectDefine, "name", { value: "defineProperty" });
+    const method = { writable: true, enumerable: false, configurable: true };
+    nativeDefine(Object, "defineProperty", { value: methods.defineProperty, ...method });
+    nativeDefine(Object, "defineProperties", { value: methods.defineProperties, ...method });
+    nativeDefine(Reflect, "defineProperty", { value: methods.reflectDefine, ...method });
+  }
 
   // A data cell's table: the columns arrive as Float64Array (numeric columns, NaN for an empty field) or as arrays
   // of field values; the records of rows are built from private copies the first time a cell reads rows.
@@ -373,5 +438,6 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   for (let i = 0; i < names.length; i++) {
     defineProperty(G, names[i], { value: api[names[i]], writable: false, enumerable: false, configurable: false });
   }
+  lockGlobalDefinitions();
   return freeze({ defineTable: defineTable, readGlobal: readGlobal, displayCompletion: displayCompletion });
 })`;
