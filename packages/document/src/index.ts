@@ -32,6 +32,7 @@ export { validateDocument, CELL_ID_PATTERN, DATA_NAME_PATTERN, SHA256_PATTERN, i
 export type { ValidateOptions } from "./validate.js";
 export { DocumentError, formatDiagnostic } from "./errors.js";
 export { messages } from "./messages.js";
+export { RESERVED_NAMES, isReservedName, reservedNameReason } from "./names.js";
 export { renderNarrative } from "./render.js";
 export { sha256Hex, utf8Bytes } from "./sha256.js";
 export { FORMAT_VERSION, HEADER_KEYS } from "./header.js";

@@ -3,6 +3,8 @@
  * so the wording and the assertions cannot drift apart. Each message says what is wrong and what would fix it.
  */
 
+import { reservedNameReason } from "./names.js";
+
 const q = (s: string): string => JSON.stringify(s);
 
 export const messages = {
@@ -42,6 +44,10 @@ export const messages = {
   parameterRangeInverted: (name: string) => ({
     code: "parameter-range-inverted",
     message: `template parameter ${q(name)} has a range whose minimum exceeds its maximum; write it as [min, max]`,
+  }),
+  nameReserved: (what: string, name: string) => ({
+    code: "name-reserved",
+    message: `${what} ${reservedNameReason(name)}`,
   }),
   parameterDuplicate: (name: string) => ({
     code: "parameter-duplicate",

@@ -2,7 +2,7 @@
  * `control(name, { value, min, max, unit?, description? })`: a number a reader may change before a rerun.
  * The cell gets the override given to the run for that name (checked against the range) or the default value.
  */
-import type { CellOutput } from "@conebook/document";
+import { isReservedName, reservedNameReason, type CellOutput } from "@conebook/document";
 import { ArgumentError, finite, optional, recordArg, stringArg } from "./validators.js";
 
 type ControlOutput = Extract<CellOutput, { type: "control" }>;
@@ -27,6 +27,7 @@ export function controlValue(
   if (typeof name !== "string" || !NAME.test(name)) {
     throw new ArgumentError(`control: argument 1 (name) must be a name such as "Q" or "pumping_rate", got ${JSON.stringify(name) ?? "nothing"}`);
   }
+  if (isReservedName(name)) throw new ArgumentError(`control: argument 1 (name) ${reservedNameReason(name)}`);
   const o = optionsArg.check(options, `control "${name}": argument 2 (options)`);
   const unit = o.unit ? ` ${o.unit}` : "";
   if (!(o.min <= o.max)) throw new ArgumentError(`control "${name}": min ${o.min} is greater than max ${o.max}; swap them`);

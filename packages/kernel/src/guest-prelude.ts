@@ -114,14 +114,15 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
         out = {};
         const ks = keysOf(v);
         for (let i = 0; i < ks.length; i++) {
-          const k = ks[i], e = v[k], t = typeof e;
+          const k = ks[i];
+          if (k === "__proto__") throw new TypeErr(fieldName(where, k) + " is a key named \"__proto__\", which cannot be passed; rename it");
+          const e = v[k], t = typeof e;
           let w = e;
           if (!(t === "number" ? e - e === 0 && (e !== 0 || 1 / e > 0) : t === "string" || t === "boolean" || e === null)) {
             path[depth] = k;
             w = walk(e, k, depth + 1);
           }
-          if (k === "__proto__") setOwn(out, k, w);
-          else out[k] = w;
+          out[k] = w;
         }
       }
       return out;

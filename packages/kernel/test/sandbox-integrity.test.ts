@@ -78,3 +78,28 @@ describe("sandbox integrity", () => {
     expect(r.outputs.c2).toEqual([{ type: "text", text: "refused: Error" }]);
   });
 });
+
+describe("names every JavaScript object already has", () => {
+  it("are refused as control names, with a message saying why", async () => {
+    const r = await kernel.runDocument(makeDoc([`control("__proto__", { value: 1, min: 0, max: 2 })`, `control("constructor", { value: 1, min: 0, max: 2 })`].map((c) => attempt(`return ${c}`)).concat([`control("__proto__", { value: 1, min: 0, max: 2 })`])));
+    expect(r.outputs.c1).toEqual([{ type: "text", text: "refused: TypeError" }]);
+    expect(r.outputs.c2).toEqual([{ type: "text", text: "refused: TypeError" }]);
+    expect(r.outputs.c3![0]).toMatchObject({
+      type: "error",
+      message: 'TypeError: control: argument 1 (name) "__proto__" is reserved: every JavaScript object has a property of that name; choose another name',
+    });
+    expect(r.controlsUsed).toEqual([]);
+  });
+
+  it("are refused as own keys of a value shown or passed to the host", async () => {
+    const r = await kernel.runDocument(makeDoc([
+      attempt(`show(JSON.parse('{"a": 1, "b": { "__proto__": { "c": 2 } }}'))`),
+      `aq.expint1(JSON.parse('{"__proto__": 1}'))`,
+    ]));
+    expect(r.outputs.c1).toEqual([{ type: "text", text: "refused: TypeError" }]);
+    expect(r.outputs.c2![0]).toMatchObject({
+      type: "error",
+      message: 'TypeError: aq.expint1: argument list, field "__proto__" is a key named "__proto__", which cannot be passed; rename it',
+    });
+  });
+});
