@@ -3,7 +3,7 @@
  * file:line:column, never an uncaught exception, and whatever the reader keeps is written back byte for byte.
  */
 import { describe, expect, it } from "vitest";
-import { DocumentError, messages, parseDocument, serializeDocument, withOutputs } from "../src/index.js";
+import { DocumentError, decodeUtf8, describeUtf8Problem, messages, parseDocument, serializeDocument, utf8Bytes, utf8Problem, withOutputs } from "../src/index.js";
 import { HEADER, lines } from "./helpers.js";
 
 /** The DocumentError parseDocument throws for `text` (fails the test when it throws anything else or nothing). */
@@ -74,5 +74,26 @@ describe("recorded outputs that are not valid JSON", () => {
   it("keep an empty outputs block as written", () => {
     const empty = lines(...HEADER, "", "```ts code:a", "1", "```", "", "```json outputs:a", "[]", "```");
     expect(serializeDocument(parseDocument(empty).document)).toBe(empty);
+  });
+});
+
+describe("bytes that are not UTF-8", () => {
+  const bytes = (...parts: (string | number[])[]) => Uint8Array.from(parts.flatMap((p) => (typeof p === "string" ? Array.from(utf8Bytes(p)) : p)));
+
+  it("are found at their byte offset, line and column", () => {
+    // "é" is 2 bytes and 1 column; "😀" is 4 bytes and 2 UTF-16 code units.
+    expect(utf8Problem(bytes("ab\ncé😀d", [0xff, 0xfe], "x"))).toEqual({ offset: 11, line: 2, column: 6, bytes: "FF FE" });
+    expect(describeUtf8Problem(utf8Problem(bytes("a", [0xff, 0x41]))!)).toBe("byte offset 1 (line 1, column 2): byte FF is not UTF-8");
+  });
+
+  it("include overlong forms, surrogates, code points above U+10FFFF and a truncated sequence (Unicode Table 3-7)", () => {
+    for (const bad of [[0xc0, 0x80], [0xe0, 0x80, 0x80], [0xed, 0xa0, 0x80], [0xf4, 0x90, 0x80, 0x80], [0xf5, 0x80, 0x80, 0x80], [0xe2, 0x82]]) {
+      expect(utf8Problem(bytes("ok", bad))?.offset, bad.join(" ")).toBe(2);
+    }
+    expect(utf8Problem(bytes("\u{10FFFF} \uFFFD é 😀 \uFEFF"))).toBeUndefined();
+  });
+
+  it("decode without losing a byte order mark", () => {
+    expect(decodeUtf8(bytes([0xef, 0xbb, 0xbf], "---"))).toBe("\uFEFF---");
   });
 });
