@@ -7,7 +7,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { sha256Hex, utf8Bytes } from "@conebook/document";
-import { main } from "../src/cli.js";
+import { main, unexpectedFailureMessage } from "../src/cli.js";
 
 async function conebook(cwd: string, ...argv: string[]) {
   const out: string[] = [];
@@ -68,5 +68,22 @@ describe("conebook on hostile input", () => {
     expect(r.stderr).toMatch(/^conebook run: d\.cone\.md:6:\d+: the header nests lists and mappings more than 64 levels deep/);
     expect(r.stderr).not.toMatch(/\n\s+at /);
     expect(await readdir(dir)).toEqual(["d.cone.md"]);
+  });
+
+  it("answers a file it cannot write with exit 2 and the reason, without a stack trace", async () => {
+    const dir = await folder();
+    await writeFile(join(dir, "d.cone.md"), `${HEAD}\n\`\`\`ts code:a\n1\n\`\`\`\n`);
+    expect((await conebook(dir, "run", "d.cone.md", "--write")).code).toBe(0);
+    const r = await conebook(dir, "export", "d.cone.md", "-o", "no-such-folder/report.html");
+    expect(r.code).toBe(2);
+    expect(r.stderr).toBe(`conebook export: cannot write ${join(dir, "no-such-folder", "report.html")}: its folder does not exist (ENOENT); the file is unchanged`);
+  });
+
+  it("says an unexpected failure without a stack trace unless CONEBOOK_DEBUG=1", () => {
+    const e = new TypeError("x is not a function");
+    expect(unexpectedFailureMessage("run", e, false)).toBe(
+      "conebook run: internal error, please report it with the command that caused it (set CONEBOOK_DEBUG=1 to see where it happened): TypeError: x is not a function",
+    );
+    expect(unexpectedFailureMessage("run", e, true)).toContain(`: ${e.stack}`);
   });
 });
