@@ -375,6 +375,147 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     nativeDefine(Reflect, "defineProperty", { value: methods.reflectDefine, ...method });
   }
 
+  // Work inside one native builtin is never interrupted, and the engine checks its interrupt only every 10,000
+  // interpreter steps, so a builtin called on a huge length, or a loop of builtins that each take milliseconds,
+  // would outlive the time limit by far. The builtins that work through a length are wrapped here: each call
+  // charges its work (about one unit per element, some 25 ns), every config.workCheck units the host says whether
+  // the cell is overdue, and an overdue cell spins until the interrupt stops it (the host's handler then keeps
+  // returning true, so nothing can catch it). An Array method on more than config.maxElements elements (a
+  // generic object or a sparse array can claim 2^53 - 1 at no memory cost) is refused at once; typed arrays and
+  // strings are bounded by the memory limit. A Proxy's ownKeys trap may list at most config.maxProxyKeys keys,
+  // since the engine checks their uniqueness in quadratic time.
+  function meterBuiltins() {
+    const apply = Reflect.apply, construct = Reflect.construct, getOwnDescriptor = Object.getOwnPropertyDescriptor;
+    const RangeErr = RangeError, floor = Math.floor, log2 = Math.log2, nativeOwnKeys = Reflect.ownKeys;
+    const overdue = host.overdue;
+    const MAX = config.maxElements, CHECK = config.workCheck, MAX_KEYS = config.maxProxyKeys;
+    let work = 0;
+    function charge(units) {
+      work += units;
+      if (work < CHECK) return;
+      work = 0;
+      if (overdue()) for (;;) {}
+    }
+    function lengthOf(o) {
+      if (o === null || o === undefined) return 0;
+      const n = +o.length;
+      return n > 0 ? (n < 9007199254740991 ? floor(n) : 9007199254740991) : 0;
+    }
+    const sortUnits = (n) => (n > 1 ? n * log2(n) : n);
+    const method = { writable: true, enumerable: false, configurable: true };
+    function wrap(owner, name, units, refuse) {
+      const native = owner[name];
+      if (typeof native !== "function") return;
+      const f = { [name]() {
+        if (refuse !== undefined) refuse(this, name, arguments);
+        charge(units(this, arguments));
+        return apply(native, this, arguments);
+      } }[name];
+      defineProperty(f, "length", { value: native.length });
+      defineProperty(owner, name, { value: f, ...method });
+    }
+
+    // Array methods: the length of this (n log n for a sort without a comparator, which compares as strings).
+    const tooLong = (name, what, n) => new RangeErr("Array.prototype." + name + ": " + what + " " + n + ", more than the " + MAX + " elements one call may go through in a cell; work on a shorter array");
+    const refuseLong = (o, name) => {
+      const n = lengthOf(o);
+      if (n > MAX) throw tooLong(name, "this has length", n);
+    };
+    const AP = Array.prototype;
+    const arrayWork = ["copyWithin", "every", "fill", "filter", "find", "findIndex", "findLast", "findLastIndex", "flat",
+      "flatMap", "forEach", "includes", "indexOf", "join", "lastIndexOf", "map", "reduce", "reduceRight", "reverse",
+      "shift", "slice", "some", "splice", "toLocaleString", "toReversed", "toSpliced", "unshift", "with"];
+    for (let i = 0; i < arrayWork.length; i++) wrap(AP, arrayWork[i], (o) => lengthOf(o), refuseLong);
+    wrap(AP, "sort", (o, a) => (typeof a[0] === "function" ? lengthOf(o) : 4 * sortUnits(lengthOf(o))), refuseLong);
+    wrap(AP, "toSorted", (o, a) => (typeof a[0] === "function" ? lengthOf(o) : 4 * sortUnits(lengthOf(o))), refuseLong);
+    const concatUnits = (o, a) => {
+      let n = lengthOf(o);
+      for (let i = 0; i < a.length; i++) if (isArray(a[i])) n += lengthOf(a[i]);
+      return n;
+    };
+    wrap(AP, "concat", concatUnits, (o, name, a) => {
+      const n = concatUnits(o, a);
+      if (n > MAX) throw tooLong(name, "the arrays have together a length of", n);
+    });
+
+    // Typed-array methods: their length (bounded by the memory limit, so never refused).
+    const TAP = getProto(Int8Array.prototype);
+    const taLength = getOwnDescriptor(TAP, "length").get;
+    const lengthOfTyped = (o) => {
+      try {
+        return callFn(taLength, o);
+      } catch (e) {
+        return 0;
+      }
+    };
+    const typedWork = ["copyWithin", "every", "fill", "filter", "find", "findIndex", "findLast", "findLastIndex", "forEach",
+      "includes", "indexOf", "join", "lastIndexOf", "map", "reduce", "reduceRight", "reverse", "slice", "some",
+      "toLocaleString", "toReversed", "with"];
+    for (let i = 0; i < typedWork.length; i++) wrap(TAP, typedWork[i], lengthOfTyped);
+    wrap(TAP, "sort", (o, a) => (typeof a[0] === "function" ? lengthOfTyped(o) : sortUnits(lengthOfTyped(o))));
+    wrap(TAP, "toSorted", (o, a) => (typeof a[0] === "function" ? lengthOfTyped(o) : sortUnits(lengthOfTyped(o))));
+    wrap(TAP, "set", (o, a) => lengthOf(a[0]));
+
+    // String methods: the length of this, at about 3 ns a character (the result's length for repeat and pad).
+    const SP = String.prototype;
+    const chars = (o) => lengthOf(o) / 8;
+    const stringWork = ["concat", "endsWith", "includes", "indexOf", "isWellFormed", "lastIndexOf", "localeCompare", "match",
+      "matchAll", "normalize", "replace", "replaceAll", "search", "slice", "split", "startsWith", "substr", "substring",
+      "toLocaleLowerCase", "toLocaleUpperCase", "toLowerCase", "toUpperCase", "toWellFormed", "trim", "trimEnd", "trimStart"];
+    for (let i = 0; i < stringWork.length; i++) wrap(SP, stringWork[i], chars);
+    wrap(SP, "repeat", (o, a) => (lengthOf(o) * (+a[0] > 0 ? +a[0] : 0)) / 8);
+    wrap(SP, "padStart", (o, a) => (+a[0] > 0 ? +a[0] : 0) / 8);
+    wrap(SP, "padEnd", (o, a) => (+a[0] > 0 ? +a[0] : 0) / 8);
+
+    // Whole-object walks: the size of what they produce, charged once they return (they are bounded by memory).
+    function after(owner, name, units) {
+      const native = owner[name];
+      const f = { [name]() {
+        const r = apply(native, this, arguments);
+        charge(units(r, arguments));
+        return r;
+      } }[name];
+      defineProperty(f, "length", { value: native.length });
+      defineProperty(owner, name, { value: f, ...method });
+    }
+    const keyWalks = ["keys", "values", "entries", "getOwnPropertyNames", "getOwnPropertySymbols"];
+    for (let i = 0; i < keyWalks.length; i++) after(Object, keyWalks[i], (r) => lengthOf(r));
+    after(Reflect, "ownKeys", (r) => lengthOf(r));
+    after(JSON, "stringify", (r) => (typeof r === "string" ? r.length / 8 : 0));
+    after(JSON, "parse", (r, a) => lengthOf(a[0]) / 8);
+
+    // Proxy: the same constructor, with every handler's ownKeys result counted before the engine sees it.
+    const NativeProxy = Proxy, revocable = Proxy.revocable;
+    function guardedHandler(handler) {
+      if (handler === null || (typeof handler !== "object" && typeof handler !== "function")) return handler;
+      const guarded = Object.create(handler);
+      defineProperty(guarded, "ownKeys", {
+        value: function ownKeys(target) {
+          const trap = handler.ownKeys;
+          if (trap === undefined || trap === null) return nativeOwnKeys(target);
+          const keys = callFn(trap, handler, target);
+          const n = keys !== null && typeof keys === "object" ? lengthOf(keys) : 0;
+          if (n > MAX_KEYS) throw new RangeErr("a Proxy's ownKeys trap returned " + n + " keys; a cell may list at most " + MAX_KEYS);
+          charge((n * n) / 100);
+          return keys;
+        },
+      });
+      return guarded;
+    }
+    // Bound, so that like the original it can be constructed but has no prototype property.
+    const SandboxProxy = callFn(Function.prototype.bind, function Proxy(target, handler) {
+      if (!new.target) throw new TypeErr("Constructor Proxy requires 'new'");
+      return construct(NativeProxy, [target, guardedHandler(handler)]);
+    }, undefined);
+    defineProperty(SandboxProxy, "name", { value: "Proxy" });
+    defineProperty(SandboxProxy, "length", { value: 2 });
+    defineProperty(SandboxProxy, "revocable", {
+      value: { revocable(target, handler) { return revocable(target, guardedHandler(handler)); } }.revocable,
+      ...method,
+    });
+    defineProperty(G, "Proxy", { value: SandboxProxy, ...method });
+  }
+
   // A data cell's table: the columns arrive as Float64Array (numeric columns, NaN for an empty field) or as arrays
   // of field values; the records of rows are built from private copies the first time a cell reads rows.
   function buildRows(columns, values, numeric, n) {
@@ -433,6 +574,8 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     if (v === undefined) return undefined;
     return encode(toDisplay(v), "the cell's last expression");
   }
+
+  meterBuiltins();
 
   const api = { aq: aq, charts: freeze(taggedCharts), show: show, control: control };
   const names = keysOf(api);
