@@ -378,12 +378,12 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   // Work inside one native builtin is never interrupted, and the engine checks its interrupt only every 10,000
   // interpreter steps, so a builtin called on a huge length, or a loop of builtins that each take milliseconds,
   // would outlive the time limit by far. The builtins that work through a length are wrapped here: each call
-  // charges its work (about one unit per element, some 25 ns), every config.workCheck units the host says whether
-  // the cell is overdue, and an overdue cell spins until the interrupt stops it (the host's handler then keeps
-  // returning true, so nothing can catch it). An Array method on more than config.maxElements elements (a
-  // generic object or a sparse array can claim 2^53 - 1 at no memory cost) is refused at once; typed arrays and
-  // strings are bounded by the memory limit. A Proxy's ownKeys trap may list at most config.maxProxyKeys keys,
-  // since the engine checks their uniqueness in quadratic time.
+  // estimates its work in units of about one element (some 25 ns) and is refused at once when that exceeds
+  // config.maxElements (a generic object or a sparse array can claim a length of 2^53 - 1 at no memory cost);
+  // otherwise it charges the work, every config.workCheck units the host says whether the cell is overdue, and an
+  // overdue cell spins until the interrupt stops it (the host's handler then keeps returning true, so nothing can
+  // catch it). A Proxy's ownKeys trap may list at most config.maxProxyKeys keys, since the engine checks their
+  // uniqueness in quadratic time.
   function meterBuiltins() {
     const apply = Reflect.apply, construct = Reflect.construct, getOwnDescriptor = Object.getOwnPropertyDescriptor;
     const RangeErr = RangeError, floor = Math.floor, log2 = Math.log2, nativeOwnKeys = Reflect.ownKeys;
@@ -401,88 +401,92 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
       const n = +o.length;
       return n > 0 ? (n < 9007199254740991 ? floor(n) : 9007199254740991) : 0;
     }
-    const sortUnits = (n) => (n > 1 ? n * log2(n) : n);
+    const nLogN = (n) => (n > 1 ? n * log2(n) : n);
     const method = { writable: true, enumerable: false, configurable: true };
-    function wrap(owner, name, units, refuse) {
+    // Replaces owner[name] by a method that refuses (tooMuch returns the error) or charges its units and calls it.
+    function wrap(owner, name, units, tooMuch) {
       const native = owner[name];
       if (typeof native !== "function") return;
       const f = { [name]() {
-        if (refuse !== undefined) refuse(this, name, arguments);
-        charge(units(this, arguments));
+        const u = units(this, arguments);
+        if (u > MAX) throw tooMuch(this, arguments, u);
+        charge(u);
         return apply(native, this, arguments);
       } }[name];
       defineProperty(f, "length", { value: native.length });
       defineProperty(owner, name, { value: f, ...method });
     }
+    const tooMuch = (what, name, advice) => (o, a, u) => new RangeErr(what + "." + name + ": this call would do about " + floor(u) + " units of work (a unit is about one element), more than the " + MAX + " one call may do in a cell; " + advice);
 
-    // Array methods: the length of this (n log n for a sort without a comparator, which compares as strings).
-    const tooLong = (name, what, n) => new RangeErr("Array.prototype." + name + ": " + what + " " + n + ", more than the " + MAX + " elements one call may go through in a cell; work on a shorter array");
-    const refuseLong = (o, name) => {
-      const n = lengthOf(o);
-      if (n > MAX) throw tooLong(name, "this has length", n);
-    };
+    // Array methods: one unit per element of this; a sort without a comparator compares as strings, 4 n log2 n.
     const AP = Array.prototype;
+    const longArray = (name) => (o) => new RangeErr("Array.prototype." + name + ": this has length " + lengthOf(o) + ", more than the " + MAX + " elements one call may go through in a cell; work on a shorter array");
     const arrayWork = ["copyWithin", "every", "fill", "filter", "find", "findIndex", "findLast", "findLastIndex", "flat",
       "flatMap", "forEach", "includes", "indexOf", "join", "lastIndexOf", "map", "reduce", "reduceRight", "reverse",
       "shift", "slice", "some", "splice", "toLocaleString", "toReversed", "toSpliced", "unshift", "with"];
-    for (let i = 0; i < arrayWork.length; i++) wrap(AP, arrayWork[i], (o) => lengthOf(o), refuseLong);
-    wrap(AP, "sort", (o, a) => (typeof a[0] === "function" ? lengthOf(o) : 4 * sortUnits(lengthOf(o))), refuseLong);
-    wrap(AP, "toSorted", (o, a) => (typeof a[0] === "function" ? lengthOf(o) : 4 * sortUnits(lengthOf(o))), refuseLong);
+    for (let i = 0; i < arrayWork.length; i++) wrap(AP, arrayWork[i], lengthOf, longArray(arrayWork[i]));
+    const sortUnits = (o, a) => (typeof a[0] === "function" ? lengthOf(o) : 4 * nLogN(lengthOf(o)));
+    const longSort = (name) => (o, a) => (typeof a[0] === "function" ? longArray(name)(o) :
+      new RangeErr("Array.prototype." + name + ": sorting " + lengthOf(o) + " elements as strings (no comparator given) is more work than one call may do in a cell; give a comparator such as (a, b) => a - b"));
+    wrap(AP, "sort", sortUnits, longSort("sort"));
+    wrap(AP, "toSorted", sortUnits, longSort("toSorted"));
     const concatUnits = (o, a) => {
       let n = lengthOf(o);
       for (let i = 0; i < a.length; i++) if (isArray(a[i])) n += lengthOf(a[i]);
       return n;
     };
-    wrap(AP, "concat", concatUnits, (o, name, a) => {
-      const n = concatUnits(o, a);
-      if (n > MAX) throw tooLong(name, "the arrays have together a length of", n);
-    });
+    wrap(AP, "concat", concatUnits, (o, a, u) => new RangeErr("Array.prototype.concat: the arrays have together a length of " + u + ", more than the " + MAX + " elements one call may go through in a cell; work on shorter arrays"));
 
-    // Typed-array methods: their length (bounded by the memory limit, so never refused).
+    // Typed-array methods: one unit per element, n log2 n for a sort without a comparator, 10 per element to
+    // write numbers as text.
     const TAP = getProto(Int8Array.prototype);
     const taLength = getOwnDescriptor(TAP, "length").get;
-    const lengthOfTyped = (o) => {
+    const typedLength = (o) => {
       try {
         return callFn(taLength, o);
       } catch (e) {
         return 0;
       }
     };
+    const typedTooMuch = (name) => tooMuch("TypedArray.prototype", name, "work on a shorter typed array");
     const typedWork = ["copyWithin", "every", "fill", "filter", "find", "findIndex", "findLast", "findLastIndex", "forEach",
-      "includes", "indexOf", "join", "lastIndexOf", "map", "reduce", "reduceRight", "reverse", "slice", "some",
-      "toLocaleString", "toReversed", "with"];
-    for (let i = 0; i < typedWork.length; i++) wrap(TAP, typedWork[i], lengthOfTyped);
-    wrap(TAP, "sort", (o, a) => (typeof a[0] === "function" ? lengthOfTyped(o) : sortUnits(lengthOfTyped(o))));
-    wrap(TAP, "toSorted", (o, a) => (typeof a[0] === "function" ? lengthOfTyped(o) : sortUnits(lengthOfTyped(o))));
-    wrap(TAP, "set", (o, a) => lengthOf(a[0]));
+      "includes", "indexOf", "lastIndexOf", "map", "reduce", "reduceRight", "reverse", "slice", "some", "toReversed", "with"];
+    for (let i = 0; i < typedWork.length; i++) wrap(TAP, typedWork[i], typedLength, typedTooMuch(typedWork[i]));
+    const typedSortUnits = (o, a) => (typeof a[0] === "function" ? typedLength(o) : nLogN(typedLength(o)));
+    wrap(TAP, "sort", typedSortUnits, typedTooMuch("sort"));
+    wrap(TAP, "toSorted", typedSortUnits, typedTooMuch("toSorted"));
+    wrap(TAP, "join", (o) => 10 * typedLength(o), typedTooMuch("join"));
+    wrap(TAP, "toLocaleString", (o) => 10 * typedLength(o), typedTooMuch("toLocaleString"));
+    wrap(TAP, "set", (o, a) => lengthOf(a[0]), typedTooMuch("set"));
 
-    // String methods: the length of this, at about 3 ns a character (the result's length for repeat and pad).
+    // String methods: one unit per 8 characters of this (the result's length for repeat and the pads).
     const SP = String.prototype;
+    const stringTooMuch = (name) => tooMuch("String.prototype", name, "work on a shorter string");
     const chars = (o) => lengthOf(o) / 8;
     const stringWork = ["concat", "endsWith", "includes", "indexOf", "isWellFormed", "lastIndexOf", "localeCompare", "match",
       "matchAll", "normalize", "replace", "replaceAll", "search", "slice", "split", "startsWith", "substr", "substring",
       "toLocaleLowerCase", "toLocaleUpperCase", "toLowerCase", "toUpperCase", "toWellFormed", "trim", "trimEnd", "trimStart"];
-    for (let i = 0; i < stringWork.length; i++) wrap(SP, stringWork[i], chars);
-    wrap(SP, "repeat", (o, a) => (lengthOf(o) * (+a[0] > 0 ? +a[0] : 0)) / 8);
-    wrap(SP, "padStart", (o, a) => (+a[0] > 0 ? +a[0] : 0) / 8);
-    wrap(SP, "padEnd", (o, a) => (+a[0] > 0 ? +a[0] : 0) / 8);
+    for (let i = 0; i < stringWork.length; i++) wrap(SP, stringWork[i], chars, stringTooMuch(stringWork[i]));
+    wrap(SP, "repeat", (o, a) => (lengthOf(o) * (+a[0] > 0 ? +a[0] : 0)) / 8, stringTooMuch("repeat"));
+    wrap(SP, "padStart", (o, a) => (+a[0] > 0 ? +a[0] : 0) / 8, stringTooMuch("padStart"));
+    wrap(SP, "padEnd", (o, a) => (+a[0] > 0 ? +a[0] : 0) / 8, stringTooMuch("padEnd"));
+    wrap(JSON, "parse", (o, a) => (typeof a[0] === "string" ? a[0].length / 8 : 0), tooMuch("JSON", "parse", "parse less text at once"));
 
-    // Whole-object walks: the size of what they produce, charged once they return (they are bounded by memory).
+    // Whole-object walks: the size of what they produce, charged once they return (what they walk is in memory).
     function after(owner, name, units) {
       const native = owner[name];
       const f = { [name]() {
         const r = apply(native, this, arguments);
-        charge(units(r, arguments));
+        charge(units(r));
         return r;
       } }[name];
       defineProperty(f, "length", { value: native.length });
       defineProperty(owner, name, { value: f, ...method });
     }
     const keyWalks = ["keys", "values", "entries", "getOwnPropertyNames", "getOwnPropertySymbols"];
-    for (let i = 0; i < keyWalks.length; i++) after(Object, keyWalks[i], (r) => lengthOf(r));
-    after(Reflect, "ownKeys", (r) => lengthOf(r));
+    for (let i = 0; i < keyWalks.length; i++) after(Object, keyWalks[i], lengthOf);
+    after(Reflect, "ownKeys", lengthOf);
     after(JSON, "stringify", (r) => (typeof r === "string" ? r.length / 8 : 0));
-    after(JSON, "parse", (r, a) => lengthOf(a[0]) / 8);
 
     // Proxy: the same constructor, with every handler's ownKeys result counted before the engine sees it.
     const NativeProxy = Proxy, revocable = Proxy.revocable;

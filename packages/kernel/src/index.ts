@@ -7,6 +7,7 @@ export { createKernel, type CellStart, type CellStatus, type Kernel, type Kernel
 export {
   DEFAULT_MEMORY_LIMIT_MB,
   DEFAULT_TIME_LIMIT_MS,
+  HOST_HEAP_LIMIT_MB,
   HOST_RESERVE_MB,
   MAX_ELEMENTS_PER_CALL,
   MAX_FORECAST_VALUES,
@@ -19,6 +20,7 @@ export {
   limitsFor,
   type RunLimits,
 } from "./limits.js";
+export { abortMessage } from "./locations.js";
 export { STACK_LIMIT_BYTES, Sandbox, type SandboxHooks, type SandboxOptions } from "./sandbox.js";
 export { AQUIFER_API, BRIDGE_API, CHART_API, arg, fn, type BridgeArgument, type BridgeEntry } from "./bridge-api.js";
 export { ArgumentError } from "./validators.js";

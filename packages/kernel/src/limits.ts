@@ -45,6 +45,8 @@ export const SANDBOX_BASE_MB = 16;
 export const HOST_RESERVE_MB = 16;
 /** How long after a cell's time limit the CLI's watchdog ends a run that the kernel did not stop, ms. */
 export const WATCHDOG_MARGIN_MS = 1000;
+/** JavaScript heap of the CLI's run worker (the host side of the bridge), MiB; past it the run is ended. */
+export const HOST_HEAP_LIMIT_MB = 1024;
 /** Most drawdown values (samples x points x times) one Monte Carlo forecast may compute; checked before any work. */
 export const MAX_FORECAST_VALUES = MAX_MONTE_CARLO_VALUES;
 

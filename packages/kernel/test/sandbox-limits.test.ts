@@ -29,11 +29,28 @@ describe("limits inside native builtins", () => {
     expect(ms).toBeLessThan(2000);
   });
 
-  it("refuses a sparse array of length 2^32 - 1 handed to join, indexOf or sort", async () => {
-    for (const call of [`Array(2 ** 32 - 1).join("")`, `Array(2 ** 32 - 1).indexOf(1)`, `Array(2 ** 32 - 1).sort()`, `String(Array(2 ** 32 - 1))`]) {
+  it("refuses a sparse array of length 2^32 - 1 handed to join, indexOf, concat or sort", async () => {
+    for (const call of [`Array(2 ** 32 - 1).join("")`, `Array(2 ** 32 - 1).indexOf(1)`, `String(Array(2 ** 32 - 1))`, `Array(2 ** 32 - 1).sort((a, b) => a - b)`]) {
       const { out } = await runCell(call, { timeLimitMs: 300 });
-      expect(out, call).toMatchObject({ type: "error", message: expect.stringMatching(/^RangeError: Array\.prototype\.(join|indexOf|sort): this has length 4294967295/) });
+      expect(out, call).toMatchObject({ type: "error", message: expect.stringMatching(/^RangeError: Array\.prototype\.(join|indexOf|sort): this has length 4294967295, more than/) });
     }
+    const { out } = await runCell(`[1].concat(Array(2 ** 32 - 2))`);
+    expect(out).toMatchObject({ type: "error", message: expect.stringMatching(/^RangeError: Array\.prototype\.concat: the arrays have together a length of 4294967295, more than/) });
+  });
+
+  it("refuses one call whose work would take more than about half a second, before it starts", async () => {
+    // Sorting 2^22 numbers as strings took 3 s inside one builtin; with a comparator the engine can stop it.
+    const cases: [string, RegExp][] = [
+      [`Array(2 ** 22).fill(0).sort()`, /^RangeError: Array\.prototype\.sort: sorting 4194304 elements as strings \(no comparator given\) is more work than one call may do in a cell; give a comparator such as \(a, b\) => a - b$/],
+      [`new Float64Array(2 ** 22).join()`, /^RangeError: TypedArray\.prototype\.join: this call would do about 41943040 units of work/],
+      [`"x".repeat(2 ** 24).repeat(16)`, /^RangeError: String\.prototype\.repeat: this call would do about 33554432 units of work/],
+    ];
+    for (const [call, message] of cases) {
+      const { out } = await runCell(call, { timeLimitMs: 2000 });
+      expect(out, call).toMatchObject({ type: "error", message: expect.stringMatching(message) });
+    }
+    const { out } = await runCell(`[3, 1, 2, 10].sort().join() + " " + new Float64Array([3, 1, 2, 10]).sort().join()`);
+    expect(out).toEqual({ type: "text", text: "1,10,2,3 1,2,3,10" });
   });
 
   it("stops a loop of joins, each short, within its time limit plus half a second", async () => {
