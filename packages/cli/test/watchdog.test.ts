@@ -43,7 +43,8 @@ rate * 2
 `;
 
 describe("the watchdog", () => {
-  it(`ends a run stuck inside a builtin ${WATCHDOG_MARGIN_MS} ms after the cell's time limit and keeps the earlier cells' outputs`, async () => {
+  it("ends a run stuck inside a builtin 1000 ms after the cell's time limit and keeps the earlier cells' outputs", async () => {
+    expect(WATCHDOG_MARGIN_MS).toBe(1000);
     const dir = await mkdtemp(join(tmpdir(), "conebook-watchdog-"));
     await writeFile(join(dir, "d.cone.md"), DOC);
     const t0 = performance.now();
