@@ -74,6 +74,7 @@ export async function execute(loaded: LoadedDocument, overrides: Record<string, 
         controlsUsed,
         unusedOverrides: Object.keys(overrides).filter((k) => !used.has(k)),
         limits,
+        // Unknown: the worker that held the sandbox was ended before it could report its memory.
         memory: { peakBytes: 0, capBytes: 0 },
       };
     };
