@@ -3,7 +3,7 @@ import { readFileSync } from "node:fs";
 import { theisModel, theisDrawdown } from "../src/models/index.js";
 import { fitModel } from "../src/fit/index.js";
 import { boundaryFromWell, withRateSchedule } from "../src/superposition/index.js";
-import { forecastDrawdown, seededRandom, ForecastInputError, type ForecastOptions } from "../src/forecast/index.js";
+import { forecastDrawdown, seededRandom, ForecastInputError, MAX_MONTE_CARLO_VALUES, type ForecastOptions } from "../src/forecast/index.js";
 
 // Reference: tests/fixtures/forecast/forecast.json (generate_forecast.py): Theis drawdown and its gradient in
 // (ln T, ln S) by mpmath.diff at 30 digits, sd = sqrt(g C g^T) for a stated covariance of (ln T, ln S).
@@ -118,5 +118,22 @@ describe("forecastDrawdown", () => {
     expect(() => forecastDrawdown({ ...options("none"), boundaries: [barrier] })).toThrow(/ambiguous with boundaries/);
     const nan = { ...options("linear"), covariance: { names: ["T", "S"], matrix: [[Number.NaN, 0], [0, 1e-12]] } };
     expect(() => forecastDrawdown(nan)).toThrow(/did not determine these parameters/);
+  });
+
+  it("refuses a Monte Carlo forecast of more than MAX_MONTE_CARLO_VALUES drawdown values before sampling", () => {
+    let calls = 0;
+    const big = { ...options({ monteCarlo: { samples: 1_000_000, seed: 1 } }), times: Array.from({ length: 1000 }, (_, i) => 0.01 * (i + 1)), checkpoint: () => void calls++ };
+    expect(() => forecastDrawdown(big)).toThrow(ForecastInputError);
+    expect(() => forecastDrawdown(big)).toThrow(`forecastDrawdown: a Monte Carlo forecast of 1000000 samples at 1 points and 1000 times needs 1000000000 drawdown values; one call may compute at most ${MAX_MONTE_CARLO_VALUES}.`);
+    expect(calls).toBe(0);
+    expect(MAX_MONTE_CARLO_VALUES).toBe(4_000_000);
+  });
+
+  it("calls the checkpoint before each Monte Carlo sample and lets its error through", () => {
+    let calls = 0;
+    forecastDrawdown({ ...options({ monteCarlo: { samples: 37, seed: 3 } }), checkpoint: () => void calls++ });
+    expect(calls).toBe(37);
+    const stop = new Error("deadline");
+    expect(() => forecastDrawdown({ ...options({ monteCarlo: { samples: 37, seed: 3 } }), checkpoint: () => { if (++calls > 40) throw stop; } })).toThrow(stop);
   });
 });

@@ -11,7 +11,8 @@ const root = fileURLToPath(new URL("..", import.meta.url));
 const staging = `${root}dist.tmp-${process.pid}`;
 await rm(staging, { recursive: true, force: true });
 await build({
-  entryPoints: { conebook: `${root}src/main.ts` },
+  // The run worker (src/run-worker.ts) is a second entry: execute.ts starts it from beside the bundle.
+  entryPoints: { conebook: `${root}src/main.ts`, "run-worker": `${root}src/run-worker.ts` },
   outdir: staging,
   bundle: true,
   splitting: true,

@@ -1,7 +1,9 @@
 /**
  * The `conebook` command: picks the subcommand, shows help, and turns errors into messages and exit codes
- * (UsageError and InputError: the message and 2; anything else: an internal error, also 2, with its stack).
+ * (UsageError, InputError and WriteError: the message and 2; anything else: an internal error, also 2, whose
+ * stack trace is shown only with CONEBOOK_DEBUG=1).
  */
+import { WriteError } from "./atomic-write.js";
 import { EXIT, InputError, UsageError } from "./errors.js";
 import { EXPORT_HELP, exportCommand } from "./commands/export.js";
 import { NEW_HELP, newCommand } from "./commands/new.js";
@@ -54,11 +56,21 @@ export async function main(argv: readonly string[], io: Io): Promise<number> {
   try {
     return await command.run(rest, io);
   } catch (e) {
-    if (e instanceof UsageError || e instanceof InputError) {
+    if (e instanceof UsageError || e instanceof InputError || e instanceof WriteError) {
       io.err(`conebook ${name}: ${e.message}`);
       return EXIT.inputError;
     }
-    io.err(`conebook ${name}: internal error (please report it): ${e instanceof Error ? (e.stack ?? e.message) : String(e)}`);
+    io.err(unexpectedFailureMessage(name, e));
     return EXIT.inputError;
   }
+}
+
+/**
+ * The message for a failure no command expected: what it was, without a stack trace unless the environment
+ * sets CONEBOOK_DEBUG=1 (a stack trace tells a user nothing they can act on).
+ */
+export function unexpectedFailureMessage(command: string, e: unknown, debug = process.env.CONEBOOK_DEBUG === "1"): string {
+  const what = e instanceof Error ? (debug && e.stack ? e.stack : `${e.name}: ${e.message}`) : String(e);
+  const hint = debug ? "" : " (set CONEBOOK_DEBUG=1 to see where it happened)";
+  return `conebook ${command}: internal error, please report it with the command that caused it${hint}: ${what}`;
 }

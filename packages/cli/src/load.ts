@@ -4,7 +4,7 @@
  */
 import { readFile } from "node:fs/promises";
 import { dirname, relative, resolve } from "node:path";
-import { DocumentError, formatDiagnostic, parseDocument, sha256Hex } from "@conebook/document";
+import { DocumentError, decodeUtf8, describeUtf8Problem, formatDiagnostic, parseDocument, sha256Hex, utf8Problem } from "@conebook/document";
 import type { ConebookDocument, Diagnostic } from "@conebook/document";
 import { checkDataPins, type PinCheck } from "@conebook/kernel";
 import { fileReaderFor } from "@conebook/kernel/node";
@@ -43,7 +43,10 @@ export async function loadDocument(file: string, cwd: string): Promise<LoadedDoc
     if (code === "EISDIR") throw new InputError(`${shown} is a folder; give a document file (*.cone.md)`);
     throw new InputError(`${shown}: cannot read: ${(e as Error).message}`);
   }
-  const text = new TextDecoder("utf-8").decode(bytes);
+  // Refused rather than decoded with replacement characters, which --write would then save over the bytes.
+  const notUtf8 = utf8Problem(bytes);
+  if (notUtf8) throw new InputError(`${place(shown, notUtf8.line, notUtf8.column)}: the file is not UTF-8 at ${describeUtf8Problem(notUtf8)}; save it as UTF-8`);
+  const text = decodeUtf8(bytes);
   let parsed;
   try {
     parsed = parseDocument(text, { file: shown });
@@ -84,6 +87,12 @@ export async function checkPins(loaded: LoadedDocument): Promise<{ checks: PinCh
       (c) => `${place(loaded.shown, c.line, 1)}: data "${c.name}" refers to ${c.path}, which cannot be read beside the document (${c.reason}); put the file there or fix file=`,
     );
     throw new InputError(lines.join("\n"));
+  }
+  const notText = checks.filter((c) => c.status === "not-utf8");
+  if (notText.length > 0) {
+    throw new InputError(
+      notText.map((c) => `${place(loaded.shown, c.line, 1)}: data "${c.name}" refers to ${c.path}, which is not UTF-8 at ${c.reason}; save it as UTF-8 and pin the new bytes`).join("\n"),
+    );
   }
   return { checks, changed: checks.filter((c) => c.status === "changed") };
 }

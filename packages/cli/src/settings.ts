@@ -8,7 +8,7 @@
  * checked after the run, when the kernel reports which controls it met.
  */
 import { convert, parseUnit } from "@conebook/aquifer";
-import type { CellOutput, ConebookDocument, Position, TemplateParameter } from "@conebook/document";
+import { isReservedName, reservedNameReason, type CellOutput, type ConebookDocument, type Position, type TemplateParameter } from "@conebook/document";
 import type { RecordedControl } from "@conebook/kernel";
 import { InputError, UsageError, place } from "./errors.js";
 
@@ -29,6 +29,7 @@ export function parseSettings(words: readonly string[], command: string): Settin
     const eq = word.indexOf("=");
     const name = eq < 0 ? "" : word.slice(0, eq).trim();
     if (eq < 0 || name === "") throw new UsageError(`--set needs name=value (for example --set rate=0.008), got ${JSON.stringify(word)}`, command);
+    if (isReservedName(name)) throw new UsageError(`--set ${name}: the name ${reservedNameReason(name)}`, command);
     if (seen.has(name)) throw new UsageError(`--set ${name} is given twice; give each name once`, command);
     seen.add(name);
     const raw = word.slice(eq + 1);

@@ -9,6 +9,7 @@
 import { Document, LineCounter, isMap, isScalar, isSeq, parseDocument, stringify } from "yaml";
 import type { Node as YamlNode } from "yaml";
 import { DocumentError, diagnostic } from "./errors.js";
+import { MAX_HEADER_DEPTH, headerNodeProblem, nestingTooDeep } from "./header-guard.js";
 import { messages } from "./messages.js";
 import { readTestInformation, testInformationToRaw } from "./test-information.js";
 import { stableStringify } from "./text.js";
@@ -16,14 +17,6 @@ import type { DataSlot, Diagnostic, DocumentHeader, Position, TemplateParameter 
 
 /** The newest format version this package reads and writes. */
 export const FORMAT_VERSION = 1;
-/** Default wall-clock limit per cell, ms, used when the header gives none. */
-export const DEFAULT_CELL_TIME_LIMIT_MS = 10_000;
-/** Largest wall-clock limit per cell a header may ask for, ms (10 minutes). */
-export const MAX_CELL_TIME_LIMIT_MS = 600_000;
-/** Default sandbox memory limit, MiB, used when the header gives none. */
-export const DEFAULT_MEMORY_LIMIT_MB = 256;
-/** Largest sandbox memory limit a header may ask for, MiB. */
-export const MAX_MEMORY_LIMIT_MB = 4096;
 
 /**
  * Options for every YAML text this package writes: no line folding, and double-quoted strings on one line
@@ -48,6 +41,13 @@ type Raw = Record<string, unknown>;
  * are file positions. Throws DocumentError when the YAML cannot be read or is not a mapping.
  */
 export function readHeader(yamlText: string, firstLine: number, file?: string): HeaderReading {
+  const tooDeep = nestingTooDeep(yamlText);
+  if (tooDeep !== undefined) {
+    const before = yamlText.slice(0, tooDeep);
+    const lineStart = before.lastIndexOf("\n") + 1;
+    const line = firstLine + (before.length - before.replace(/\n/g, "").length);
+    throw new DocumentError(messages.headerTooDeep(MAX_HEADER_DEPTH), { line, column: tooDeep - lineStart + 1 }, file);
+  }
   const lineCounter = new LineCounter();
   const doc = parseDocument(yamlText, { lineCounter, prettyErrors: false, uniqueKeys: true });
   const toPos = (offset: number): Position => {
@@ -57,6 +57,11 @@ export function readHeader(yamlText: string, firstLine: number, file?: string): 
   if (doc.errors.length > 0) {
     const e = doc.errors[0]!;
     throw new DocumentError(messages.headerYaml(e.message.split("\n")[0]!), toPos(e.pos[0]), file);
+  }
+  const problem = headerNodeProblem(doc);
+  if (problem) {
+    const entry = problem.kind === "alias" ? messages.headerAlias(problem.name) : messages.headerTooDeep(MAX_HEADER_DEPTH);
+    throw new DocumentError(entry, toPos(problem.offset), file);
   }
   const positions: Record<string, Position> = {};
   const visit = (node: unknown, path: string): void => {

@@ -3,6 +3,8 @@
  * so the wording and the assertions cannot drift apart. Each message says what is wrong and what would fix it.
  */
 
+import { reservedNameReason } from "./names.js";
+
 const q = (s: string): string => JSON.stringify(s);
 
 export const messages = {
@@ -15,6 +17,14 @@ export const messages = {
     message: "the header opened by '---' on line 1 is never closed; add a line '---' after the last header line",
   }),
   headerYaml: (detail: string) => ({ code: "header-yaml", message: `the header is not valid YAML: ${detail}` }),
+  headerAlias: (name: string) => ({
+    code: "header-alias",
+    message: `the header uses the YAML alias *${name}; Conebook headers allow no aliases (a chain of them can make a few lines expand to billions of values). Write the value out in full`,
+  }),
+  headerTooDeep: (max: number) => ({
+    code: "header-too-deep",
+    message: `the header nests lists and mappings more than ${max} levels deep here; a Conebook header needs a few levels, so flatten the value`,
+  }),
   headerNotMapping: () => ({
     code: "header-not-mapping",
     message: "the header must be a YAML mapping of keys to values (for example 'title: Pumping test')",
@@ -42,6 +52,10 @@ export const messages = {
   parameterRangeInverted: (name: string) => ({
     code: "parameter-range-inverted",
     message: `template parameter ${q(name)} has a range whose minimum exceeds its maximum; write it as [min, max]`,
+  }),
+  nameReserved: (what: string, name: string) => ({
+    code: "name-reserved",
+    message: `${what} ${reservedNameReason(name)}`,
   }),
   parameterDuplicate: (name: string) => ({
     code: "parameter-duplicate",
@@ -83,9 +97,9 @@ export const messages = {
     code: "outputs-orphan",
     message: `this outputs block for ${q(id)} does not directly follow cell ${q(id)}; it is kept as ordinary Markdown and ignored. Move it right after its cell or delete it`,
   }),
-  outputsJson: (detail: string) => ({
+  outputsJson: (id: string, detail: string) => ({
     code: "outputs-json",
-    message: `the recorded outputs are not valid JSON (${detail}); rerun the document to record them again`,
+    message: `the recorded outputs of cell ${q(id)} are not valid JSON (${detail}); the block is kept as written, as ordinary text, and ignored. Rerun with --write to record fresh outputs after the cell, then delete the old block`,
   }),
   outputsShape: (detail: string) => ({
     code: "outputs-shape",

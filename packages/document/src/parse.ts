@@ -230,26 +230,28 @@ export function splitBody(text: string, from: number, file?: string): BodyReadin
     if (block.type === "fenced" && block.info.kind === "outputs") {
       const target = narrative === undefined ? lastFenced : undefined;
       const blockId = block.info.id === "" ? undefined : block.info.id;
-      if (target && target.origin!.outputsText === undefined && (blockId === undefined || blockId === target.id)) {
-        const raw = fencedParts(text, lines, block);
-        target.origin!.outputsLeading = gap;
-        target.origin!.outputsText = raw.head + raw.body + raw.tail;
-        let outputs: CellOutput[] = [];
+      const raw = target && target.origin!.outputsText === undefined && (blockId === undefined || blockId === target.id) ? fencedParts(text, lines, block) : undefined;
+      let reading: ReturnType<typeof readOutputs> | undefined;
+      if (raw) {
         try {
-          const reading = readOutputs(raw.source);
-          outputs = reading.outputs;
-          for (const problem of reading.problems) fail(messages.outputsShape(problem), raw.sourceStart, target.id);
+          reading = readOutputs(raw.source);
         } catch (e) {
-          fail(messages.outputsJson((e as Error).message), raw.sourceStart, target.id);
+          // Not JSON: nothing in it can be trusted as outputs, and dropping it would lose text. It stays as
+          // ordinary Markdown (below), like an orphan block; a rerun records fresh outputs after the cell.
+          warn(messages.outputsJson(target!.id, (e as Error).message), raw.sourceStart, target!.id);
         }
-        target.outputs = outputs;
-        target.origin!.outputsSnapshot = outputsKey(blockId ?? null, outputs);
+      } else warn(messages.outputsOrphan(blockId ?? "(no id)"), positions.at(block.start), blockId);
+      if (raw && reading) {
+        target!.origin!.outputsLeading = gap;
+        target!.origin!.outputsText = raw.head + raw.body + raw.tail;
+        for (const problem of reading.problems) fail(messages.outputsShape(problem), raw.sourceStart, target!.id);
+        target!.outputs = reading.outputs;
+        target!.origin!.outputsSnapshot = outputsKey(blockId ?? null, reading.outputs);
         cursor = block.end;
         lastFenced = undefined;
         continue;
       }
-      warn(messages.outputsOrphan(blockId ?? "(no id)"), positions.at(block.start), blockId);
-      // An orphan outputs block is kept as ordinary Markdown: fall through to the content case.
+      // An orphan or unreadable outputs block is kept as ordinary Markdown: fall through to the content case.
     }
     if (block.type === "marker") {
       flushNarrative();

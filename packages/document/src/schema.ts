@@ -6,7 +6,7 @@
  * randomly generated headers written by writeHeaderYaml.
  */
 
-import { MAX_CELL_TIME_LIMIT_MS, MAX_MEMORY_LIMIT_MB } from "./header.js";
+import { MAX_CELL_TIME_LIMIT_MS, MAX_MEMORY_LIMIT_MB } from "./limits.js";
 import type { JsonSchema } from "./json-schema.js";
 import { testInformationSchema } from "./test-information.js";
 

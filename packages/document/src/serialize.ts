@@ -184,11 +184,11 @@ function insertId(head: string, id: string): string {
 
 function writeOutputsBlock(cell: Cell, eol: string, writeIds: boolean): string {
   const o = cell.origin;
-  if (cell.outputs.length === 0) return "";
   if (o?.outputsText !== undefined) {
     const same = o.outputsSnapshot === outputsKey(cell.id, cell.outputs) || (!writeIds && o.outputsSnapshot === outputsKey(null, cell.outputs));
     if (same) return o.outputsLeading! + o.outputsText;
   }
+  if (cell.outputs.length === 0) return "";
   const json = writeOutputs(cell.outputs).split("\n").join(eol);
   const fence = safeFence(json, "`");
   return `${o?.outputsText !== undefined ? o.outputsLeading! : eol + eol}${fence}json outputs:${cell.id}${eol}${json}${eol}${fence}`;

@@ -5,8 +5,10 @@
  */
 
 import { diagnostic } from "./errors.js";
-import { FORMAT_VERSION, MAX_CELL_TIME_LIMIT_MS, MAX_MEMORY_LIMIT_MB } from "./header.js";
+import { FORMAT_VERSION } from "./header.js";
+import { MAX_CELL_TIME_LIMIT_MS, MAX_MEMORY_LIMIT_MB } from "./limits.js";
 import { messages } from "./messages.js";
+import { isReservedName } from "./names.js";
 import { outputShapeProblem } from "./outputs.js";
 import { chartSpecSchema } from "./schema.js";
 import { validateJsonSchema } from "./json-schema.js";
@@ -72,6 +74,7 @@ function validateCell(cell: Cell, at: Position, err: Report, warn: Report, dataN
       return;
     case "data": {
       if (!DATA_NAME_PATTERN.test(cell.name)) err(messages.dataName(cell.name), at, cell.id);
+      else if (isReservedName(cell.name)) err(messages.nameReserved("data set name", cell.name), at, cell.id);
       const seen = dataNames.get(cell.name);
       if (seen !== undefined) err(messages.dataNameDuplicate(cell.name, seen), at, cell.id);
       else dataNames.set(cell.name, at.line);
@@ -131,6 +134,7 @@ function validateHeader(doc: ConebookDocument, at: (path: string) => Position, e
       const param = p as Record<string, unknown>;
       if (typeof param !== "object" || param === null) return typeError(path, "a mapping with name and value");
       if (typeof param.name !== "string" || param.name === "") typeError(`${path}.name`, "a non-empty string");
+      else if (isReservedName(param.name)) err(messages.nameReserved("template parameter name", param.name), at(`${path}.name`));
       else if (names.has(param.name)) err(messages.parameterDuplicate(param.name), at(`${path}.name`));
       else names.add(param.name);
       if (typeof param.value !== "number" && typeof param.value !== "string") typeError(`${path}.value`, "a number or a string");
@@ -156,7 +160,7 @@ function validateHeader(doc: ConebookDocument, at: (path: string) => Position, e
         const slot = s as Record<string, unknown>;
         if (typeof slot !== "object" || slot === null || typeof slot.name !== "string" || slot.name === "") {
           typeError(`dataSlots.${i}.name`, "a non-empty string");
-        }
+        } else if (isReservedName(slot.name)) err(messages.nameReserved("data slot name", slot.name), at(`dataSlots.${i}.name`));
       });
   }
   if (h.testInformation !== undefined && doc.layout === undefined) {

@@ -1,7 +1,7 @@
 /** fast-check generators of random, valid Conebook documents, used by the property tests. */
 
 import fc from "fast-check";
-import { HEADER_KEYS } from "../src/index.js";
+import { HEADER_KEYS, isReservedName } from "../src/index.js";
 import type { Cell, CellOutput, ConebookDocument, DocumentHeader, TemplateParameter } from "../src/index.js";
 
 const start = { line: 1, column: 1 };
@@ -88,7 +88,7 @@ const cellArb: fc.Arbitrary<CellSeed> = fc.oneof(
 );
 
 const paramArb: fc.Arbitrary<TemplateParameter> = fc
-  .tuple(fc.stringMatching(/^[a-z][a-z0-9]{0,5}$/), num, num, fc.double({ min: 0, max: 1, noNaN: true }), fc.option(fc.string(), { nil: undefined }), fc.option(fc.string(), { nil: undefined }))
+  .tuple(fc.stringMatching(/^[a-z][a-z0-9]{0,5}$/).filter((n) => !isReservedName(n)), num, num, fc.double({ min: 0, max: 1, noNaN: true }), fc.option(fc.string(), { nil: undefined }), fc.option(fc.string(), { nil: undefined }))
   .map(([name, a, b, f, unit, description]) => {
     const [min, max] = a <= b ? [a, b] : [b, a];
     const value = Math.min(max, Math.max(min, min + f * (max - min)));
@@ -104,9 +104,9 @@ export const headerArb: fc.Arbitrary<DocumentHeader> = fc
     seed: fc.integer(),
     libraryVersion: fc.option(fc.constantFrom("0.1.0", "1.2.3-beta.1"), { nil: undefined }),
     timeLimitMs: fc.option(fc.integer({ min: 1, max: 600000 }), { nil: undefined }),
-    memoryLimitMb: fc.option(fc.integer({ min: 1, max: 4096 }), { nil: undefined }),
+    memoryLimitMb: fc.option(fc.integer({ min: 1, max: 1024 }), { nil: undefined }),
     parameters: fc.uniqueArray(paramArb, { selector: (p) => p.name, maxLength: 3 }),
-    dataSlots: fc.option(fc.array(fc.record({ name: fc.string({ minLength: 1 }), description: fc.string() }), { maxLength: 2 }), { nil: undefined }),
+    dataSlots: fc.option(fc.array(fc.record({ name: fc.string({ minLength: 1 }).filter((n) => !isReservedName(n)), description: fc.string() }), { maxLength: 2 }), { nil: undefined }),
     extra: fc.dictionary(fc.stringMatching(/^[a-z][a-zA-Z0-9]{0,6}$/).filter((k) => !(HEADER_KEYS as readonly string[]).includes(k)), fc.jsonValue(), { maxKeys: 3 }),
   })
   .map((h) => {

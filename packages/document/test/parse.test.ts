@@ -102,9 +102,10 @@ describe("parseDocument: cells", () => {
     expect(diagnostics.find((d) => d.code === "outputs-orphan")).toMatchObject({ line: 13, column: 1, severity: "warning" });
   });
 
-  it("reports malformed outputs JSON and output shapes as errors at the outputs' first line", () => {
+  it("keeps outputs that are not JSON as narrative with a warning, and reports malformed output shapes as errors, at the outputs' first line", () => {
     const bad = parse("```ts code:a", "1", "```", "", "```json outputs:a", "[{", "```");
-    expect(bad.diagnostics.map((d) => [d.code, d.line, d.severity])).toEqual([["outputs-json", 12, "error"]]);
+    expect(bad.diagnostics.filter((d) => d.code !== "id-assigned").map((d) => [d.code, d.line, d.severity])).toEqual([["outputs-json", 12, "warning"]]);
+    expect(bad.document.cells.map((c) => c.kind)).toEqual(["code", "narrative"]);
     const shape = parse("```ts code:a", "1", "```", "", "```json outputs:a", '[{"type": "value", "value": "x"}]', "```");
     expect(shape.diagnostics[0]!.code).toBe("outputs-shape");
     expect(shape.diagnostics[0]!.message).toContain("output 1: a value output needs a number");

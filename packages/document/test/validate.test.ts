@@ -95,4 +95,16 @@ describe("validateDocument", () => {
     const data = (id: string, name: string): Cell => ({ id, kind: "data", name, format: "csv", source: "a", sourceStart: at, outputs: [] });
     expect(codes({ ...base, cells: [data("a", "obs-1"), data("b", "obs"), data("c", "obs")] })).toEqual(["data-name", "data-name-duplicate"]);
   });
+  it("refuses names every JavaScript object already has for parameters, data sets and data slots", () => {
+    const header = {
+      ...base.header,
+      parameters: [{ name: "__proto__", value: 1 }, { name: "constructor", value: 2 }, { name: "rate", value: 3 }],
+      dataSlots: [{ name: "toString" }],
+    };
+    const data: Cell = { id: "d", kind: "data", name: "__proto__", format: "csv", source: "t\n1", sourceStart: at, outputs: [] };
+    const found = validateDocument({ ...base, header, cells: [data] });
+    expect(found.map((d) => d.code)).toEqual(["name-reserved", "name-reserved", "name-reserved", "name-reserved"]);
+    expect(found[0]!.message).toBe(messages.nameReserved("template parameter name", "__proto__").message);
+    expect(found[0]!.message).toBe('template parameter name "__proto__" is reserved: every JavaScript object has a property of that name; choose another name');
+  });
 });

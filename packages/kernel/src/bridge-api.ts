@@ -8,6 +8,7 @@
  * Errors thrown by the host function reach the cell as errors named after the guest function.
  * docs/api.md ("Inside a cell") lists these functions for users; keep the two in step.
  */
+import { hostCheckpoint } from "./host-budget.js";
 import {
   agarwalEquivalentTime,
   boundariesFromRecords,
@@ -512,6 +513,7 @@ function forecastScheme(o: Checked<typeof forecastSchemeArg>): unknown {
     boundaries: boundariesFromRecords(o.wells[0]!, o.boundaries ?? []),
     tolerance: o.tolerance,
     uncertainty: o.uncertainty,
+    checkpoint: hostCheckpoint("aq.forecastDrawdown"),
   });
 }
 
@@ -832,7 +834,7 @@ export const AQUIFER_API: Readonly<Record<string, BridgeEntry>> = {
   "aq.forecastAt": fn(
     "Drawdown forecast in lengthUnit at distances { value, unit } from one well, times { values, unit }, rate { value, unit } or schedule, from a fit, with bands",
     [arg("options", forecastAtArg)],
-    (options) => forecastAt(options as ForecastAtOptions),
+    (options) => forecastAt({ ...(options as ForecastAtOptions), checkpoint: hostCheckpoint("aq.forecastAt") }),
   ),
   "aq.schemeDrawdown": fn(
     "Drawdown (m) at a point { x, y } (m) and times t (d) for wells [{ name, x, y, steps }] and boundaries [{ kind, distance (m), angle (deg) }], model by id",

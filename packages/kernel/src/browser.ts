@@ -6,8 +6,9 @@
  */
 import { newQuickJSWASMModuleFromVariant, newVariant, type QuickJSSyncVariant, type QuickJSWASMModule } from "quickjs-emscripten-core";
 import RELEASE_SYNC from "@jitl/quickjs-wasmfile-release-sync";
+import type { WasmMemory } from "./wasm-memory.js";
 
-/** A module loader for createKernel({ loadModule }) that fetches the wasm from `wasmLocation`. */
-export function loadBrowserModule(wasmLocation: string): () => Promise<QuickJSWASMModule> {
-  return () => newQuickJSWASMModuleFromVariant(newVariant(RELEASE_SYNC as unknown as QuickJSSyncVariant, { wasmLocation }));
+/** A module loader for createKernel({ loadModule }) that fetches the wasm from `wasmLocation` and runs it on the kernel's memory. */
+export function loadBrowserModule(wasmLocation: string): (memory: WasmMemory) => Promise<QuickJSWASMModule> {
+  return (memory) => newQuickJSWASMModuleFromVariant(newVariant(RELEASE_SYNC as unknown as QuickJSSyncVariant, { wasmLocation, wasmMemory: memory }));
 }

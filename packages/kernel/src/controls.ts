@@ -5,7 +5,7 @@
  * code is still the default recorded beside it (a changed default means the record belongs to older code, and
  * the new default wins, with a note); the default value.
  */
-import type { CellOutput } from "@conebook/document";
+import { isReservedName, reservedNameReason, type CellOutput } from "@conebook/document";
 import { ArgumentError, finite, optional, recordArg, stringArg } from "./validators.js";
 
 type ControlOutput = Extract<CellOutput, { type: "control" }>;
@@ -38,6 +38,7 @@ export function controlValue(
   if (typeof name !== "string" || !NAME.test(name)) {
     throw new ArgumentError(`control: argument 1 (name) must be a name such as "Q" or "pumping_rate", got ${JSON.stringify(name) ?? "nothing"}`);
   }
+  if (isReservedName(name)) throw new ArgumentError(`control: argument 1 (name) ${reservedNameReason(name)}`);
   const o = optionsArg.check(options, `control "${name}": argument 2 (options)`);
   const unit = o.unit ? ` ${o.unit}` : "";
   if (!(o.min <= o.max)) throw new ArgumentError(`control "${name}": min ${o.min} is greater than max ${o.max}; swap them`);

@@ -10,7 +10,7 @@
  * becomes 100,000 objects.
  */
 import { readCsvRecords, type CsvSeparator } from "@conebook/aquifer";
-import { sha256Hex } from "@conebook/document";
+import { decodeUtf8, describeUtf8Problem, sha256Hex, utf8Problem } from "@conebook/document";
 import type { DataCell } from "@conebook/document";
 
 /** One column of a data table: numbers (NaN where the field is empty), or field values. */
@@ -138,5 +138,11 @@ export async function dataCellText(cell: DataCell, readFile: ReadFile | undefine
         "the file changed since it was pinned. Restore the original file, or update the pin if the change is intended.",
     );
   }
-  return new TextDecoder("utf-8").decode(bytes);
+  const problem = utf8Problem(bytes);
+  if (problem) {
+    throw new DataCellError(
+      `data "${cell.name}": the file ${path} is not UTF-8 at ${describeUtf8Problem(problem)}; save it as UTF-8 (and pin the new bytes)`,
+    );
+  }
+  return decodeUtf8(bytes);
 }

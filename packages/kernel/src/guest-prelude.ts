@@ -114,14 +114,15 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
         out = {};
         const ks = keysOf(v);
         for (let i = 0; i < ks.length; i++) {
-          const k = ks[i], e = v[k], t = typeof e;
+          const k = ks[i];
+          if (k === "__proto__") throw new TypeErr(fieldName(where, k) + " is a key named \"__proto__\", which cannot be passed; rename it");
+          const e = v[k], t = typeof e;
           let w = e;
           if (!(t === "number" ? e - e === 0 && (e !== 0 || 1 / e > 0) : t === "string" || t === "boolean" || e === null)) {
             path[depth] = k;
             w = walk(e, k, depth + 1);
           }
-          if (k === "__proto__") setOwn(out, k, w);
-          else out[k] = w;
+          out[k] = w;
         }
       }
       return out;
@@ -287,7 +288,7 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     s2 ^= s0; s3 ^= s1; s1 ^= s2; s0 ^= s3; s2 ^= t; s3 = rotl(s3, 11);
     return result / 4294967296;
   }
-  defineProperty(Math, "random", { value: random, writable: true, configurable: true });
+  defineProperty(Math, "random", { value: random, writable: false, configurable: false });
 
   // Date without a clock and without a time zone: reading the current time is refused, and every "local"
   // method is its UTC twin, so outputs never depend on when or where the document runs.
@@ -340,7 +341,217 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   for (let i = 0; i < textMethods.length; i++) {
     defineProperty(P, textMethods[i], { value: asIso, writable: true, configurable: true });
   }
-  defineProperty(G, "Date", { value: SandboxDate, writable: true, configurable: true });
+  freeze(SandboxDate);
+  defineProperty(G, "Date", { value: SandboxDate, writable: false, configurable: false });
+
+  // QuickJS lets Object.defineProperty, Object.defineProperties and Reflect.defineProperty change a
+  // non-configurable property of the global object (elsewhere it refuses, as the language requires), which would
+  // let a cell replace aq, show, control or a data table. These wrappers refuse such a change on the global
+  // object as the language does on any other object; every other call goes to the original unchanged.
+  function lockGlobalDefinitions() {
+    const getOwnDescriptor = Object.getOwnPropertyDescriptor, create = Object.create, ownKeys = Reflect.ownKeys;
+    const nativeDefine = Object.defineProperty, nativeDefineAll = Object.defineProperties, reflectDefine = Reflect.defineProperty;
+    const Str = String, isEnumerable = Function.prototype.call.bind(Object.prototype.propertyIsEnumerable);
+    const FIELDS = ["enumerable", "configurable", "value", "writable", "get", "set"];
+    // The descriptor read once (as ToPropertyDescriptor reads it) into an object without a prototype.
+    function descriptorOf(d) {
+      if (d === null || (typeof d !== "object" && typeof d !== "function")) throw new TypeErr("Property description must be an object");
+      const c = create(null);
+      for (let i = 0; i < FIELDS.length; i++) if (FIELDS[i] in d) c[FIELDS[i]] = d[FIELDS[i]];
+      return c;
+    }
+    const same = (a, b) => a === b ? a !== 0 || 1 / a === 1 / b : a !== a && b !== b;
+    // True when defining d on key of the global object would change a non-configurable property.
+    function changesLocked(key, d) {
+      const cur = getOwnDescriptor(G, key);
+      if (!cur || cur.configurable) return false;
+      if (d.configurable === true || ("enumerable" in d && !d.enumerable !== !cur.enumerable)) return true;
+      const accessor = "get" in d || "set" in d;
+      if ("value" in cur) {
+        if (accessor) return true;
+        if (cur.writable) return false;
+        return d.writable === true || ("value" in d && !same(d.value, cur.value));
+      }
+      if ("value" in d || "writable" in d) return true;
+      return ("get" in d && d.get !== cur.get) || ("set" in d && d.set !== cur.set);
+    }
+    const keyOf = (k) => (typeof k === "symbol" ? k : Str(k));
+    const refusal = (key) => new TypeErr("cannot redefine property: " + Str(key) + " (the sandbox installs it and keeps it as installed)");
+    const methods = {
+      defineProperty(o, key, d) {
+        if (o !== G) return nativeDefine(o, key, d);
+        const k = keyOf(key), c = descriptorOf(d);
+        if (changesLocked(k, c)) throw refusal(k);
+        return nativeDefine(o, k, c);
+      },
+      defineProperties(o, props) {
+        if (o !== G) return nativeDefineAll(o, props);
+        const keys = ownKeys(props), all = create(null);
+        for (let i = 0; i < keys.length; i++) {
+          if (!isEnumerable(props, keys[i])) continue;
+          const c = descriptorOf(props[keys[i]]);
+          if (changesLocked(keys[i], c)) throw refusal(keys[i]);
+          all[keys[i]] = c;
+        }
+        return nativeDefineAll(o, all);
+      },
+      reflectDefine(o, key, d) {
+        if (o !== G) return reflectDefine(o, key, d);
+        const k = keyOf(key), c = descriptorOf(d);
+        return changesLocked(k, c) ? false : reflectDefine(o, k, c);
+      },
+    };
+    defineProperty(methods.reflectDefine, "name", { value: "defineProperty" });
+    const method = { writable: true, enumerable: false, configurable: true };
+    nativeDefine(Object, "defineProperty", { value: methods.defineProperty, ...method });
+    nativeDefine(Object, "defineProperties", { value: methods.defineProperties, ...method });
+    nativeDefine(Reflect, "defineProperty", { value: methods.reflectDefine, ...method });
+  }
+
+  // Work inside one native builtin is never interrupted, and the engine checks its interrupt only every 10,000
+  // interpreter steps, so a builtin called on a huge length, or a loop of builtins that each take milliseconds,
+  // would outlive the time limit by far. The builtins that work through a length are wrapped here: each call
+  // estimates its work in units of about one element (some 25 ns) and is refused at once when that exceeds
+  // config.maxElements (a generic object or a sparse array can claim a length of 2^53 - 1 at no memory cost);
+  // otherwise it charges the work, every config.workCheck units the host says whether the cell is overdue, and an
+  // overdue cell spins until the interrupt stops it (the host's handler then keeps returning true, so nothing can
+  // catch it). A Proxy's ownKeys trap may list at most config.maxProxyKeys keys, since the engine checks their
+  // uniqueness in quadratic time.
+  function meterBuiltins() {
+    const apply = Reflect.apply, construct = Reflect.construct, getOwnDescriptor = Object.getOwnPropertyDescriptor;
+    const RangeErr = RangeError, floor = Math.floor, log2 = Math.log2, nativeOwnKeys = Reflect.ownKeys;
+    const overdue = host.overdue;
+    const MAX = config.maxElements, CHECK = config.workCheck, MAX_KEYS = config.maxProxyKeys;
+    let work = 0;
+    function charge(units) {
+      work += units;
+      if (work < CHECK) return;
+      work = 0;
+      if (overdue()) for (;;) {}
+    }
+    function lengthOf(o) {
+      if (o === null || o === undefined) return 0;
+      const n = +o.length;
+      return n > 0 ? (n < 9007199254740991 ? floor(n) : 9007199254740991) : 0;
+    }
+    const nLogN = (n) => (n > 1 ? n * log2(n) : n);
+    const method = { writable: true, enumerable: false, configurable: true };
+    // Replaces owner[name] by a method that refuses (tooMuch returns the error) or charges its units and calls it.
+    function wrap(owner, name, units, tooMuch) {
+      const native = owner[name];
+      if (typeof native !== "function") return;
+      const f = { [name]() {
+        const u = units(this, arguments);
+        if (u > MAX) throw tooMuch(this, arguments, u);
+        charge(u);
+        return apply(native, this, arguments);
+      } }[name];
+      defineProperty(f, "length", { value: native.length });
+      defineProperty(owner, name, { value: f, ...method });
+    }
+    const tooMuch = (what, name, advice) => (o, a, u) => new RangeErr(what + "." + name + ": this call would do about " + floor(u) + " units of work (a unit is about one element), more than the " + MAX + " one call may do in a cell; " + advice);
+
+    // Array methods: one unit per element of this; a sort without a comparator compares as strings, 4 n log2 n.
+    const AP = Array.prototype;
+    const longArray = (name) => (o) => new RangeErr("Array.prototype." + name + ": this has length " + lengthOf(o) + ", more than the " + MAX + " elements one call may go through in a cell; work on a shorter array");
+    const arrayWork = ["copyWithin", "every", "fill", "filter", "find", "findIndex", "findLast", "findLastIndex", "flat",
+      "flatMap", "forEach", "includes", "indexOf", "join", "lastIndexOf", "map", "reduce", "reduceRight", "reverse",
+      "shift", "slice", "some", "splice", "toLocaleString", "toReversed", "toSpliced", "unshift", "with"];
+    for (let i = 0; i < arrayWork.length; i++) wrap(AP, arrayWork[i], lengthOf, longArray(arrayWork[i]));
+    const sortUnits = (o, a) => (typeof a[0] === "function" ? lengthOf(o) : 4 * nLogN(lengthOf(o)));
+    const longSort = (name) => (o, a) => (typeof a[0] === "function" ? longArray(name)(o) :
+      new RangeErr("Array.prototype." + name + ": sorting " + lengthOf(o) + " elements as strings (no comparator given) is more work than one call may do in a cell; give a comparator such as (a, b) => a - b"));
+    wrap(AP, "sort", sortUnits, longSort("sort"));
+    wrap(AP, "toSorted", sortUnits, longSort("toSorted"));
+    const concatUnits = (o, a) => {
+      let n = lengthOf(o);
+      for (let i = 0; i < a.length; i++) if (isArray(a[i])) n += lengthOf(a[i]);
+      return n;
+    };
+    wrap(AP, "concat", concatUnits, (o, a, u) => new RangeErr("Array.prototype.concat: the arrays have together a length of " + u + ", more than the " + MAX + " elements one call may go through in a cell; work on shorter arrays"));
+
+    // Typed-array methods: one unit per element, n log2 n for a sort without a comparator, 10 per element to
+    // write numbers as text.
+    const TAP = getProto(Int8Array.prototype);
+    const taLength = getOwnDescriptor(TAP, "length").get;
+    const typedLength = (o) => {
+      try {
+        return callFn(taLength, o);
+      } catch (e) {
+        return 0;
+      }
+    };
+    const typedTooMuch = (name) => tooMuch("TypedArray.prototype", name, "work on a shorter typed array");
+    const typedWork = ["copyWithin", "every", "fill", "filter", "find", "findIndex", "findLast", "findLastIndex", "forEach",
+      "includes", "indexOf", "lastIndexOf", "map", "reduce", "reduceRight", "reverse", "slice", "some", "toReversed", "with"];
+    for (let i = 0; i < typedWork.length; i++) wrap(TAP, typedWork[i], typedLength, typedTooMuch(typedWork[i]));
+    const typedSortUnits = (o, a) => (typeof a[0] === "function" ? typedLength(o) : nLogN(typedLength(o)));
+    wrap(TAP, "sort", typedSortUnits, typedTooMuch("sort"));
+    wrap(TAP, "toSorted", typedSortUnits, typedTooMuch("toSorted"));
+    wrap(TAP, "join", (o) => 10 * typedLength(o), typedTooMuch("join"));
+    wrap(TAP, "toLocaleString", (o) => 10 * typedLength(o), typedTooMuch("toLocaleString"));
+    wrap(TAP, "set", (o, a) => lengthOf(a[0]), typedTooMuch("set"));
+
+    // String methods: one unit per 8 characters of this (the result's length for repeat and the pads).
+    const SP = String.prototype;
+    const stringTooMuch = (name) => tooMuch("String.prototype", name, "work on a shorter string");
+    const chars = (o) => lengthOf(o) / 8;
+    const stringWork = ["concat", "endsWith", "includes", "indexOf", "isWellFormed", "lastIndexOf", "localeCompare", "match",
+      "matchAll", "normalize", "replace", "replaceAll", "search", "slice", "split", "startsWith", "substr", "substring",
+      "toLocaleLowerCase", "toLocaleUpperCase", "toLowerCase", "toUpperCase", "toWellFormed", "trim", "trimEnd", "trimStart"];
+    for (let i = 0; i < stringWork.length; i++) wrap(SP, stringWork[i], chars, stringTooMuch(stringWork[i]));
+    wrap(SP, "repeat", (o, a) => (lengthOf(o) * (+a[0] > 0 ? +a[0] : 0)) / 8, stringTooMuch("repeat"));
+    wrap(SP, "padStart", (o, a) => (+a[0] > 0 ? +a[0] : 0) / 8, stringTooMuch("padStart"));
+    wrap(SP, "padEnd", (o, a) => (+a[0] > 0 ? +a[0] : 0) / 8, stringTooMuch("padEnd"));
+    wrap(JSON, "parse", (o, a) => (typeof a[0] === "string" ? a[0].length / 8 : 0), tooMuch("JSON", "parse", "parse less text at once"));
+
+    // Whole-object walks: the size of what they produce, charged once they return (what they walk is in memory).
+    function after(owner, name, units) {
+      const native = owner[name];
+      const f = { [name]() {
+        const r = apply(native, this, arguments);
+        charge(units(r));
+        return r;
+      } }[name];
+      defineProperty(f, "length", { value: native.length });
+      defineProperty(owner, name, { value: f, ...method });
+    }
+    const keyWalks = ["keys", "values", "entries", "getOwnPropertyNames", "getOwnPropertySymbols"];
+    for (let i = 0; i < keyWalks.length; i++) after(Object, keyWalks[i], lengthOf);
+    after(Reflect, "ownKeys", lengthOf);
+    after(JSON, "stringify", (r) => (typeof r === "string" ? r.length / 8 : 0));
+
+    // Proxy: the same constructor, with every handler's ownKeys result counted before the engine sees it.
+    const NativeProxy = Proxy, revocable = Proxy.revocable;
+    function guardedHandler(handler) {
+      if (handler === null || (typeof handler !== "object" && typeof handler !== "function")) return handler;
+      const guarded = Object.create(handler);
+      defineProperty(guarded, "ownKeys", {
+        value: function ownKeys(target) {
+          const trap = handler.ownKeys;
+          if (trap === undefined || trap === null) return nativeOwnKeys(target);
+          const keys = callFn(trap, handler, target);
+          const n = keys !== null && typeof keys === "object" ? lengthOf(keys) : 0;
+          if (n > MAX_KEYS) throw new RangeErr("a Proxy's ownKeys trap returned " + n + " keys; a cell may list at most " + MAX_KEYS);
+          charge((n * n) / 100);
+          return keys;
+        },
+      });
+      return guarded;
+    }
+    // Bound, so that like the original it can be constructed but has no prototype property.
+    const SandboxProxy = callFn(Function.prototype.bind, function Proxy(target, handler) {
+      if (!new.target) throw new TypeErr("Constructor Proxy requires 'new'");
+      return construct(NativeProxy, [target, guardedHandler(handler)]);
+    }, undefined);
+    defineProperty(SandboxProxy, "name", { value: "Proxy" });
+    defineProperty(SandboxProxy, "length", { value: 2 });
+    defineProperty(SandboxProxy, "revocable", {
+      value: { revocable(target, handler) { return revocable(target, guardedHandler(handler)); } }.revocable,
+      ...method,
+    });
+    defineProperty(G, "Proxy", { value: SandboxProxy, ...method });
+  }
 
   // A data cell's table: the columns arrive as Float64Array (numeric columns, NaN for an empty field) or as arrays
   // of field values; the records of rows are built from private copies the first time a cell reads rows.
@@ -403,10 +614,13 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     return encode(toDisplay(v), "the cell's last expression");
   }
 
+  meterBuiltins();
+
   const api = { aq: aq, charts: freeze(taggedCharts), show: show, control: control };
   const names = keysOf(api);
   for (let i = 0; i < names.length; i++) {
     defineProperty(G, names[i], { value: api[names[i]], writable: false, enumerable: false, configurable: false });
   }
+  lockGlobalDefinitions();
   return freeze({ defineTable: defineTable, readGlobal: readGlobal, displayCompletion: displayCompletion });
 })`;

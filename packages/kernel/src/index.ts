@@ -3,8 +3,24 @@
  * Node entry (`@conebook/kernel/node`, src/node.ts) adds file reading, the browser entry (src/browser.ts)
  * loading the wasm from a URL.
  */
-export { createKernel, type CellStatus, type Kernel, type KernelOptions, type ModuleLoader, type RunOptions, type RunProgress, type RunResult } from "./kernel.js";
-export { DEFAULT_MEMORY_LIMIT_MB, DEFAULT_TIME_LIMIT_MS, MAX_MEMORY_LIMIT_MB, MAX_TIME_LIMIT_MS, limitsFor, type RunLimits } from "./limits.js";
+export { createKernel, type CellStart, type CellStatus, type Kernel, type KernelOptions, type ModuleLoader, type RunOptions, type RunProgress, type RunResult } from "./kernel.js";
+export {
+  DEFAULT_MEMORY_LIMIT_MB,
+  DEFAULT_TIME_LIMIT_MS,
+  HOST_HEAP_LIMIT_MB,
+  HOST_RESERVE_MB,
+  MAX_ELEMENTS_PER_CALL,
+  MAX_FORECAST_VALUES,
+  MAX_MEMORY_LIMIT_MB,
+  MAX_PROXY_KEYS,
+  MAX_TIME_LIMIT_MS,
+  SANDBOX_BASE_MB,
+  WATCHDOG_MARGIN_MS,
+  WORK_CHECK_UNITS,
+  limitsFor,
+  type RunLimits,
+} from "./limits.js";
+export { abortMessage } from "./locations.js";
 export { STACK_LIMIT_BYTES, Sandbox, type SandboxHooks, type SandboxOptions } from "./sandbox.js";
 export { AQUIFER_API, BRIDGE_API, CHART_API, arg, fn, type BridgeArgument, type BridgeEntry } from "./bridge-api.js";
 export { ArgumentError } from "./validators.js";

@@ -15,7 +15,8 @@ import { chartDataNames, chartRecords, fillChartData } from "./chart-cells.js";
 import { controlValue, type ControlRecord, type RecordedControl } from "./controls.js";
 import { dataCellText, DataCellError, parseDataTable, type ReadFile } from "./data-cells.js";
 import { chartOutput, displayToOutputs } from "./displays.js";
-import { limitsFor, type RunLimits } from "./limits.js";
+import { newWasmMemory, type WasmMemory } from "./wasm-memory.js";
+import { HOST_RESERVE_MB, SANDBOX_BASE_MB, limitsFor, type RunLimits } from "./limits.js";
 import { abortMessage, cellFilename, errorLocation } from "./locations.js";
 import { Sandbox, STACK_LIMIT_BYTES, type GuestError } from "./sandbox.js";
 import { CellSyntaxError, stripTypes } from "./strip-types.js";
@@ -31,6 +32,17 @@ export interface RunProgress {
   total: number;
   status: CellStatus;
   elapsedMs: number;
+  /** The cell's outputs (so a host that has to stop the run midway still has those of the finished cells). */
+  outputs: CellOutput[];
+}
+
+/** Report before each executable cell runs (a watchdog's starting signal). */
+export interface CellStart {
+  cellId: string;
+  index: number;
+  total: number;
+  /** The cell's time limit, ms. */
+  timeLimitMs: number;
 }
 
 /** Options of one run. */
@@ -45,6 +57,7 @@ export interface RunOptions {
   /** Reads a pinned data file beside the document (path relative, forward slashes). */
   readFile?: ReadFile;
   onProgress?: (progress: RunProgress) => void;
+  onCellStart?: (start: CellStart) => void;
 }
 
 /** What a run produced. Narrative cells do not appear. */
@@ -60,10 +73,16 @@ export interface RunResult {
   /** What a reader should know about the values used, by cell: e.g. a recorded control value set aside. */
   notes: { cellId: string; message: string }[];
   limits: RunLimits;
+  /** The sandbox's WebAssembly memory: its size at the end of the run (it never shrinks) and its cap, bytes. */
+  memory: { peakBytes: number; capBytes: number };
 }
 
-/** Loads (or returns) the QuickJS module a kernel runs on. */
-export type ModuleLoader = () => Promise<QuickJSWASMModule> | QuickJSWASMModule;
+/**
+ * Loads the QuickJS module a kernel runs on, instantiated on `memory` (pass it as `wasmMemory` to `newVariant`; a WebAssembly.Memory):
+ * the kernel makes that memory with the run's cap as its maximum, which is what bounds typed arrays and strings.
+ * A loader that ignores `memory` still works, with the module's own 2 GiB maximum as the only hard bound.
+ */
+export type ModuleLoader = (memory: WasmMemory) => Promise<QuickJSWASMModule> | QuickJSWASMModule;
 
 /** Settings of a kernel. */
 export interface KernelOptions {
@@ -84,13 +103,30 @@ export interface Kernel {
   dispose(): void;
 }
 
-async function defaultLoader(): Promise<QuickJSWASMModule> {
-  const [{ newQuickJSWASMModuleFromVariant }, variant] = await Promise.all([
+async function defaultLoader(memory: WasmMemory): Promise<QuickJSWASMModule> {
+  const [{ newQuickJSWASMModuleFromVariant, newVariant }, variant] = await Promise.all([
     import("quickjs-emscripten-core"),
     import("@jitl/quickjs-wasmfile-release-sync"),
   ]);
   // The package's types describe its CommonJS build; the ESM build has the variant as its default export.
-  return newQuickJSWASMModuleFromVariant(variant.default as unknown as QuickJSSyncVariant);
+  return newQuickJSWASMModuleFromVariant(newVariant(variant.default as unknown as QuickJSSyncVariant, { wasmMemory: memory }));
+}
+
+const PAGE_BYTES = 65536;
+const MIB = 2 ** 20;
+
+/** A loaded module with the memory it was given and that memory's cap. */
+interface LoadedModule {
+  memoryLimitMb: number;
+  module: QuickJSWASMModule;
+  /** The cap of the module's memory when it is the one the kernel made, bytes. */
+  wasmMaxBytes: number | undefined;
+}
+
+/** A WebAssembly memory for a run whose limit is `memoryLimitMb`: the engine's base, the limit and the reserve. */
+function sandboxMemory(memoryLimitMb: number): { memory: WasmMemory; maxBytes: number } {
+  const maxBytes = Math.ceil(((SANDBOX_BASE_MB + memoryLimitMb + HOST_RESERVE_MB) * MIB) / PAGE_BYTES) * PAGE_BYTES;
+  return { memory: newWasmMemory((SANDBOX_BASE_MB * MIB) / PAGE_BYTES, maxBytes / PAGE_BYTES), maxBytes };
 }
 
 const IDENTIFIER = /^[A-Za-z_$][A-Za-z0-9_$]*$/;
@@ -102,12 +138,25 @@ function isExecutable(cell: Cell): cell is CodeCell | DataCell | ChartCell {
 /** Creates a kernel. See KernelOptions. */
 export function createKernel(options: KernelOptions = {}): Kernel {
   const load = options.loadModule ?? defaultLoader;
-  let module: Promise<QuickJSWASMModule> | undefined;
-  const getModule = () => (module ??= Promise.resolve(load()));
+  let loaded: Promise<LoadedModule> | undefined;
+  let loadedLimitMb: number | undefined;
+  // One module at a time, on a memory made for the run's memory limit; another limit loads another module.
+  const getModule = (memoryLimitMb: number): Promise<LoadedModule> => {
+    if (loaded === undefined || loadedLimitMb !== memoryLimitMb) {
+      const { memory, maxBytes } = sandboxMemory(memoryLimitMb);
+      loadedLimitMb = memoryLimitMb;
+      loaded = Promise.resolve(load(memory)).then((module) => ({
+        memoryLimitMb,
+        module,
+        wasmMaxBytes: module.getWasmMemory() === memory ? maxBytes : undefined,
+      }));
+    }
+    return loaded;
+  };
 
   return {
     async measureSandboxStart(seed = 1) {
-      const mod = await getModule();
+      const mod = (await getModule(limitsFor({}).memoryLimitMb)).module;
       const t0 = performance.now();
       const sandbox = new Sandbox(mod, {
         memoryLimitBytes: 256 * 1024 * 1024,
@@ -118,18 +167,21 @@ export function createKernel(options: KernelOptions = {}): Kernel {
       return performance.now() - t0;
     },
     async runDocument(doc, runOptions = {}) {
-      const result = await runWithModule(await getModule(), doc, runOptions);
-      if (result.aborted) module = undefined;
+      const result = await runWithModule(await getModule(limitsFor(doc.header).memoryLimitMb), doc, runOptions);
+      // A fresh module after an abort, or after a run that grew the memory past half its limit: wasm memory never
+      // shrinks, and the next run should start with its whole allowance.
+      const grown = result.result.memory.peakBytes > (SANDBOX_BASE_MB + result.result.limits.memoryLimitMb / 2) * MIB;
+      if (result.aborted || grown) loaded = undefined;
       return result.result;
     },
     dispose() {
-      module = undefined;
+      loaded = undefined;
     },
   };
 }
 
 async function runWithModule(
-  mod: QuickJSWASMModule,
+  { module: mod, wasmMaxBytes }: LoadedModule,
   doc: ConebookDocument,
   options: RunOptions,
 ): Promise<{ result: RunResult; aborted: boolean }> {
@@ -147,6 +199,7 @@ async function runWithModule(
 
   const sandbox = new Sandbox(mod, {
     memoryLimitBytes: limits.memoryLimitMb * 1024 * 1024,
+    ...(wasmMaxBytes !== undefined ? { wasmMaxBytes } : {}),
     seed: doc.header.seed,
     hooks: {
       emit(display) {
@@ -170,6 +223,7 @@ async function runWithModule(
   const cells = doc.cells.filter(isExecutable);
   let failedAt: string | undefined;
   let aborted = false;
+  let memory = { peakBytes: 0, capBytes: 0 };
 
   try {
     for (const [index, cell] of cells.entries()) {
@@ -179,6 +233,7 @@ async function runWithModule(
         status[cell.id] = "not-run";
       } else {
         current = { cell, outputs: [] };
+        options.onCellStart?.({ cellId: cell.id, index, total: cells.length, timeLimitMs: limits.timeLimitMs });
         const error = await runCell(sandbox, cell, limits, options.readFile, current.outputs, dataTexts);
         outputs[cell.id] = current.outputs;
         if (error) {
@@ -190,8 +245,9 @@ async function runWithModule(
         current = undefined;
       }
       cellTimes[cell.id] = performance.now() - t0;
-      options.onProgress?.({ cellId: cell.id, index, total: cells.length, status: status[cell.id]!, elapsedMs: cellTimes[cell.id]! });
+      options.onProgress?.({ cellId: cell.id, index, total: cells.length, status: status[cell.id]!, elapsedMs: cellTimes[cell.id]!, outputs: outputs[cell.id]! });
     }
+    memory = { peakBytes: sandbox.memoryBytes(), capBytes: sandbox.capBytes };
   } finally {
     sandbox.dispose();
   }
@@ -206,6 +262,7 @@ async function runWithModule(
       unusedOverrides: Object.keys(overrides).filter((k) => !used.has(k)),
       notes,
       limits,
+      memory,
     },
   };
 }

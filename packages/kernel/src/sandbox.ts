@@ -3,18 +3,30 @@
  *
  * Limits: a memory limit for the runtime (`setMemoryLimit`), a 128 KiB stack limit (`setMaxStackSize`; without
  * one, deep recursion overflows the host stack), and a fresh deadline interrupt for each evaluation. The
- * interrupt is checked by the interpreter between bytecodes; it does not fire inside one long native builtin
- * or inside a host bridge call, which is why a browser host also keeps a worker it can terminate.
- * After an abort (time, memory or stack) the sandbox is marked `broken` and must be disposed.
+ * interrupt is checked by the interpreter only every 10,000 steps and never inside one native builtin or a host
+ * bridge call, so three more guards hold the limits there:
+ *  - the prelude meters the builtins that work through a length (guest-prelude.ts) and calls `host.overdue`
+ *    every WORK_CHECK_UNITS of work; past the deadline it spins, so the interrupt stops the cell;
+ *  - host functions with long loops call checkHostDeadline (host-budget.ts); a call stopped there stops the cell;
+ *  - QuickJS's allocator limit misses typed arrays and string data, so the sandbox also watches the WebAssembly
+ *    memory itself: the kernel gives each module a memory that cannot grow past SANDBOX_BASE_MB + memoryMb +
+ *    HOST_RESERVE_MB, a run that grows it past SANDBOX_BASE_MB + memoryMb is stopped with the memory message,
+ *    and the host writes a reply into the sandbox only when the memory can hold it.
+ * A stop the host decides (a forced abort) cannot be caught by the cell: the interrupt handler keeps returning
+ * true. After an abort (time, memory or stack) the sandbox is marked `broken` and must be disposed; a browser host
+ * also keeps a worker it can terminate, and the CLI a watchdog, for work no guard sees.
  *
  * Every handle made here is disposed before the call that made it returns, except the prelude's internals,
  * which the sandbox owns and frees in `dispose`.
  */
 import type { QuickJSContext, QuickJSHandle, QuickJSRuntime, QuickJSWASMModule } from "quickjs-emscripten-core";
 import { BRIDGE_API } from "./bridge-api.js";
+import { HostTimeLimitError, withHostDeadline } from "./host-budget.js";
+import { HOST_RESERVE_MB, MAX_ELEMENTS_PER_CALL, MAX_PROXY_KEYS, SANDBOX_BASE_MB, WORK_CHECK_UNITS } from "./limits.js";
 import type { DataTable } from "./data-cells.js";
 import { GUEST_PRELUDE, GUEST_PRELUDE_FILENAME } from "./guest-prelude.js";
 import { ArgumentError } from "./validators.js";
+import type { WasmMemory } from "./wasm-memory.js";
 import { decodeWireValue, encodeHostValue, type WireValue } from "./wire.js";
 
 /** The stack limit of every sandbox: 128 KiB, safe in Node, Chromium and workers. */
@@ -52,7 +64,18 @@ export interface SandboxOptions {
   memoryLimitBytes: number;
   seed: number;
   hooks: SandboxHooks;
+  /**
+   * Largest size the module's WebAssembly memory can grow to, bytes, when the host created that memory with a
+   * maximum (see kernel.ts); default 2 GiB, the most a module makes for itself.
+   */
+  wasmMaxBytes?: number;
 }
+
+const MIB = 2 ** 20;
+/** What a module's own WebAssembly memory can grow to (emscripten's default maximum of 32768 pages). */
+const MODULE_DEFAULT_MAX_BYTES = 2 * 1024 * MIB;
+/** Room kept free beyond a reply's own bytes when the host writes it into the sandbox. */
+const WRITE_HEADROOM_BYTES = MIB;
 
 function errorMessage(e: unknown): { name: string; message: string } {
   if (e instanceof Error) return { name: e.name, message: e.message };
@@ -90,6 +113,13 @@ export class Sandbox {
   private readonly internals: QuickJSHandle;
   private deadline = Infinity;
   private interrupted = false;
+  /** A stop the host decided; the interrupt handler then stops the guest whatever it catches. */
+  private forcedAbort: AbortKind | undefined;
+  private readonly memory: WasmMemory;
+  /** The memory may not grow past this during a run (SANDBOX_BASE_MB + the run's limit), bytes. */
+  private readonly softCapBytes: number;
+  /** The memory cannot grow past this, bytes. */
+  readonly capBytes: number;
   /** True after an abort: the runtime may be in a bad state; dispose it. */
   broken = false;
   hooks: SandboxHooks;
@@ -97,16 +127,13 @@ export class Sandbox {
   /** Creates a runtime and context on `module`, installs limits, bridge and prelude. Cost: about a millisecond. */
   constructor(module: QuickJSWASMModule, options: SandboxOptions) {
     this.hooks = options.hooks;
+    this.memory = module.getWasmMemory();
+    this.capBytes = options.wasmMaxBytes ?? MODULE_DEFAULT_MAX_BYTES;
+    this.softCapBytes = Math.min(this.capBytes - HOST_RESERVE_MB * MIB, SANDBOX_BASE_MB * MIB + options.memoryLimitBytes);
     this.runtime = module.newRuntime();
     this.runtime.setMemoryLimit(options.memoryLimitBytes);
     this.runtime.setMaxStackSize(STACK_LIMIT_BYTES);
-    this.runtime.setInterruptHandler(() => {
-      if (Date.now() > this.deadline) {
-        this.interrupted = true;
-        return true;
-      }
-      return false;
-    });
+    this.runtime.setInterruptHandler(() => this.overdue());
     this.context = this.runtime.newContext();
     try {
       this.internals = this.installPrelude(options.seed);
@@ -117,6 +144,32 @@ export class Sandbox {
     }
   }
 
+  /** Size of the sandbox's WebAssembly memory now, bytes (it never shrinks, so this is the run's peak). */
+  memoryBytes(): number {
+    return this.memory.buffer.byteLength;
+  }
+
+  /** True when the guest must stop: a forced abort, the deadline passed, or the memory grew past its limit. */
+  private overdue(): boolean {
+    if (this.forcedAbort !== undefined) return true;
+    if (Date.now() > this.deadline) {
+      this.interrupted = true;
+      return true;
+    }
+    if (this.memoryBytes() > this.softCapBytes) {
+      this.forcedAbort = "memory";
+      return true;
+    }
+    return false;
+  }
+
+  /** Throws (and stops the run at the memory limit) unless `bytes` more can be written into the sandbox. */
+  private ensureRoom(bytes: number): void {
+    if (this.capBytes - this.memoryBytes() >= bytes + WRITE_HEADROOM_BYTES) return;
+    this.forcedAbort = "memory";
+    throw new Error(`the reply of ${Math.ceil(bytes / MIB)} MiB does not fit in the sandbox's memory`);
+  }
+
   private installPrelude(seed: number): QuickJSHandle {
     const ctx = this.context;
     const preludeFn = ctx.unwrapResult(ctx.evalCode(GUEST_PRELUDE, GUEST_PRELUDE_FILENAME, { type: "global", strict: true }));
@@ -124,17 +177,23 @@ export class Sandbox {
     const call = ctx.newFunction("call", (nameH, jsonH, buffersH) => this.hostCall(nameH, jsonH, buffersH));
     const emit = ctx.newFunction("emit", (jsonH, buffersH) => this.hostEmit(jsonH, buffersH));
     const control = ctx.newFunction("control", (jsonH, buffersH) => this.hostControl(jsonH, buffersH));
+    const overdue = ctx.newFunction("overdue", () => (this.overdue() ? ctx.true : ctx.false));
     ctx.setProp(host, "call", call);
     ctx.setProp(host, "emit", emit);
     ctx.setProp(host, "control", control);
+    ctx.setProp(host, "overdue", overdue);
     call.dispose();
     emit.dispose();
     control.dispose();
+    overdue.dispose();
     const names = Object.keys(BRIDGE_API);
     const configJson = JSON.stringify({
       seed,
       aquifer: names.filter((n) => n.startsWith("aq.")),
       charts: names.filter((n) => n.startsWith("charts.")),
+      maxElements: MAX_ELEMENTS_PER_CALL,
+      workCheck: WORK_CHECK_UNITS,
+      maxProxyKeys: MAX_PROXY_KEYS,
     });
     const config = ctx.unwrapResult(ctx.evalCode(`(${configJson})`, GUEST_PRELUDE_FILENAME));
     const result = ctx.callFunction(preludeFn, ctx.undefined, host, config);
@@ -170,6 +229,8 @@ export class Sandbox {
     const ctx = this.context;
     // The bytes are copied into QuickJS memory at once, so the wire may share the host arrays' buffers.
     const wire = encodeHostValue(value, { shareBuffers: true });
+    // Each buffer is copied twice on its way in (a heap buffer, then the ArrayBuffer), the text once as UTF-8.
+    this.ensureRoom(3 * wire.json.length + 2 * wire.buffers.reduce((n, b) => n + b.byteLength, 0));
     const out = ctx.newArray();
     const json = ctx.newString(wire.json);
     ctx.setProp(out, 0, json);
@@ -197,11 +258,15 @@ export class Sandbox {
       }
       const checked = entry.args.map((a, i) => a.validator.check(args[i], `${guestName}: argument ${i + 1} (${a.name})`));
       try {
-        return this.newWire((entry.call as (...a: unknown[]) => unknown)(...checked));
+        return this.newWire(withHostDeadline(this.deadline, () => (entry.call as (...a: unknown[]) => unknown)(...checked)));
       } catch (e) {
         throw withTextPlaces(e, typeof checked[0] === "string" ? this.hooks.placeOfText?.(checked[0]) : undefined);
       }
     } catch (e) {
+      if (e instanceof HostTimeLimitError) {
+        this.interrupted = true;
+        this.forcedAbort = "time";
+      }
       return { error: ctx.newError(bridgeErrorMessage(guestName, e)) };
     }
   }
@@ -234,22 +299,44 @@ export class Sandbox {
       const d = dumped as Record<string, unknown>;
       error = { name: String(d.name ?? "Error"), message: String(d.message ?? ""), stack: String(d.stack ?? "") };
     } else error = { name: "Error", message: `a value was thrown that is not an Error: ${String(dumped)}`, stack: "" };
-    if (this.interrupted && error.name === "InternalError" && error.message === "interrupted") error.abort = "time";
+    if (this.forcedAbort !== undefined) error.abort = this.forcedAbort;
+    else if (this.interrupted && error.name === "InternalError" && error.message === "interrupted") error.abort = "time";
     else if (error.name === "InternalError" && error.message === "out of memory") error.abort = "memory";
+    // An allocation that failed for want of WebAssembly memory can leave an error that cannot even be described.
+    else if (this.memoryBytes() > this.softCapBytes) error.abort = "memory";
     else if (error.name === "InternalError" && error.message === "stack overflow") error.abort = "stack";
     else if (error.name === "RangeError" && /Maximum call stack/.test(error.message)) error.abort = "stack";
     if (error.abort) this.broken = true;
     return error;
   }
 
-  private withDeadline<T>(timeLimitMs: number, run: () => T): T {
+  private withDeadline<T>(timeLimitMs: number, run: () => Outcome<T>): Outcome<T> {
     this.interrupted = false;
     this.deadline = Date.now() + timeLimitMs;
     try {
-      return run();
+      return this.guarded(run);
     } finally {
       this.deadline = Infinity;
     }
+  }
+
+  /**
+   * Runs `run`; a stop the host decided meanwhile (a host call at the deadline, a reply that did not fit) becomes
+   * the outcome, also when the cell caught the error and finished or the host's own write was refused.
+   */
+  private guarded<T>(run: () => Outcome<T>): Outcome<T> {
+    const stopped = (): Outcome<T> => {
+      this.broken = true;
+      return { ok: false, error: { name: "InternalError", message: "stopped by the host", stack: "", abort: this.forcedAbort } };
+    };
+    let outcome: Outcome<T>;
+    try {
+      outcome = run();
+    } catch (e) {
+      if (this.forcedAbort !== undefined) return stopped();
+      throw e;
+    }
+    return outcome.ok && this.forcedAbort !== undefined ? stopped() : outcome;
   }
 
   private callInternal(method: string, args: QuickJSHandle[], timeLimitMs: number): Outcome<unknown> {
@@ -287,6 +374,7 @@ export class Sandbox {
   evalScript(code: string, filename: string, timeLimitMs: number): Outcome<unknown> {
     const ctx = this.context;
     return this.withDeadline(timeLimitMs, () => {
+      this.ensureRoom(3 * code.length);
       // Strict: assigning to a read-only data global or an undeclared name is an error, as in TypeScript modules.
       const result = ctx.evalCode(code, filename, { type: "global", strict: true });
       if (result.error) return { ok: false, error: this.takeError(result.error) };
@@ -304,15 +392,19 @@ export class Sandbox {
    * see data-cells.ts). Columns cross as bytes (Float64Array) or JSON; the CSV text crosses as one string.
    */
   defineTable(table: DataTable, timeLimitMs: number): Outcome<unknown> {
-    const ctx = this.context;
-    const nameH = ctx.newString(table.name);
-    const wire = this.newWire({ columns: table.columns, values: table.values, length: table.length });
-    const csvH = ctx.newString(table.csv);
-    const outcome = this.callInternal("defineTable", [nameH, wire, csvH], timeLimitMs);
-    nameH.dispose();
-    wire.dispose();
-    csvH.dispose();
-    return outcome;
+    return this.guarded(() => {
+      const ctx = this.context;
+      this.ensureRoom(3 * table.csv.length);
+      // newWire checks its own room before it makes a handle, so nothing is left undisposed when it throws.
+      const wire = this.newWire({ columns: table.columns, values: table.values, length: table.length });
+      const nameH = ctx.newString(table.name);
+      const csvH = ctx.newString(table.csv);
+      const outcome = this.callInternal("defineTable", [nameH, wire, csvH], timeLimitMs);
+      nameH.dispose();
+      wire.dispose();
+      csvH.dispose();
+      return outcome;
+    });
   }
 
   /** The value of the guest global (or global lexical binding) `name`, as plain data. */

@@ -12,7 +12,7 @@
  *                and is not compared separately
  *   kinds        an output of another type (for example an error where a value was recorded) is one difference
  */
-import { sha256Hex } from "@conebook/document";
+import { describeUtf8Problem, sha256Hex, utf8Problem } from "@conebook/document";
 import type { CellOutput, ConebookDocument } from "@conebook/document";
 import type { ReadFile } from "./data-cells.js";
 
@@ -221,8 +221,9 @@ export interface PinCheck {
   pinned: string;
   /** The SHA-256 of the file's bytes now; undefined when it could not be read. */
   actual?: string;
-  status: "ok" | "changed" | "unreadable";
-  /** Why the file could not be read. */
+  /** "not-utf8": the bytes match the pin but are not UTF-8 text (`reason` says where). */
+  status: "ok" | "changed" | "unreadable" | "not-utf8";
+  /** Why the file could not be read, or where it stops being UTF-8. */
   reason?: string;
 }
 
@@ -246,7 +247,9 @@ export async function checkDataPins(doc: ConebookDocument, readFile: ReadFile): 
       continue;
     }
     const actual = sha256Hex(bytes);
-    checks.push({ ...base, actual, status: actual === base.pinned ? "ok" : "changed" });
+    const problem = actual === base.pinned ? utf8Problem(bytes) : undefined;
+    if (problem) checks.push({ ...base, actual, status: "not-utf8", reason: describeUtf8Problem(problem) });
+    else checks.push({ ...base, actual, status: actual === base.pinned ? "ok" : "changed" });
   }
   return checks;
 }

@@ -44,6 +44,8 @@ export interface ForecastAtOptions {
   readonly uncertainty?: ForecastUncertainty;
   /** Length unit of the forecast drawdowns. */
   readonly lengthUnit: string;
+  /** Called before each Monte Carlo sample (see forecastDrawdown's `checkpoint`). */
+  readonly checkpoint?: () => void;
 }
 
 /** The forecast at one point, in the requested units. */
@@ -155,6 +157,7 @@ export function forecastAt(options: ForecastAtOptions): ForecastAtResult {
     points: options.points.map((p, i) => ({ name: p.name, r: distances[i]! })),
     times: t,
     uncertainty: options.uncertainty ?? "none",
+    ...(options.checkpoint ? { checkpoint: options.checkpoint } : {}),
   });
   const inUnit = (values: Float64Array | null) => (values === null ? null : convertArray(values, "m", lengthUnit));
   const notes = [...result.notes];

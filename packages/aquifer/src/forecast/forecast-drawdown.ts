@@ -46,7 +46,18 @@ export type ForecastOptions = ParameterInput & {
   readonly tolerance?: number;
   /** Default "none". */
   readonly uncertainty?: ForecastUncertainty;
+  /**
+   * Called before each Monte Carlo sample; a host that must stop long work (at a deadline) throws from it, and
+   * forecastDrawdown lets the error through. Pure callers leave it out.
+   */
+  readonly checkpoint?: () => void;
 };
+
+/**
+ * Most drawdown values (samples x points x times) one Monte Carlo forecast computes: they are all kept (8 bytes
+ * each, 32 MB at this bound) to take quantiles, so a larger request is refused before any sampling.
+ */
+export const MAX_MONTE_CARLO_VALUES = 4_000_000;
 
 /** Forecast at one point. */
 export interface PointForecast {
@@ -211,6 +222,13 @@ export function forecastDrawdown(options: ForecastOptions): ForecastResult {
   if (!mc || !Number.isInteger(mc.samples) || mc.samples < 10 || mc.samples > 1e6 || !Number.isSafeInteger(mc.seed)) {
     throw new ForecastInputError(`${where}: uncertainty must be "none", "linear" or { monteCarlo: { samples (integer 10..1e6), seed (integer) } }.`);
   }
+  const values = mc.samples * points.length * t.length;
+  if (values > MAX_MONTE_CARLO_VALUES) {
+    throw new ForecastInputError(
+      `${where}: a Monte Carlo forecast of ${mc.samples} samples at ${points.length} points and ${t.length} times needs ${values} drawdown values; ` +
+        `one call may compute at most ${MAX_MONTE_CARLO_VALUES}. Use fewer samples, points or times.`,
+    );
+  }
   const L = choleskyLower(C);
   if (!L) throw new ForecastInputError(`${where}: the covariance is not positive semi-definite; it cannot be sampled.`);
   const random = seededRandom(mc.seed);
@@ -221,6 +239,7 @@ export function forecastDrawdown(options: ForecastOptions): ForecastResult {
   const theta = new Float64Array(p);
   const native = new Float64Array(resolved.values.length);
   for (let k = 0; k < N; k++) {
+    options.checkpoint?.();
     for (let j = 0; j < p; j++) z[j] = random.nextNormal();
     for (let a = 0; a < p; a++) {
       let v = resolved.theta[a]!;

@@ -8,6 +8,7 @@ export { choleskyLower } from "./cholesky.js";
 export { sortedQuantile } from "./quantile.js";
 export { resolveParameters, type GivenParameters, type ParameterInput, type ResolvedParameters } from "./parameters.js";
 export {
+  MAX_MONTE_CARLO_VALUES,
   forecastDrawdown,
   type ForecastOptions,
   type ForecastPoint,

@@ -1,0 +1,48 @@
+/**
+ * The worker thread a command's run happens in (see execute.ts): it receives the parsed document, the overrides
+ * and the document's folder, runs the document with the kernel, and posts each cell's start, each cell's end
+ * with its outputs, and the result. The main thread's watchdog ends this thread when a cell outlives its limit.
+ */
+import { parentPort } from "node:worker_threads";
+import type { ConebookDocument } from "@conebook/document";
+import type { CellStart, RecordedControl, RunProgress, RunResult } from "@conebook/kernel";
+import { createNodeKernel, fileReaderFor } from "@conebook/kernel/node";
+
+/** What the main thread sends: one run. */
+export interface RunRequest {
+  document: ConebookDocument;
+  overrides: Record<string, number>;
+  /** Control values recorded in the document, with the default recorded beside each (see RunOptions). */
+  recordedControls: Record<string, RecordedControl>;
+  /** The document's folder; pinned data files are read relative to it. */
+  folder: string;
+}
+
+/** What the worker posts back: starts and progress per cell, then one result or failure. */
+export type RunReply =
+  | { type: "start"; start: CellStart }
+  | { type: "progress"; progress: RunProgress }
+  | { type: "result"; result: RunResult }
+  | { type: "failed"; message: string; stack?: string };
+
+const port = parentPort;
+if (port) {
+  port.once("message", async (request: RunRequest) => {
+    const post = (reply: RunReply) => port.postMessage(reply);
+    const kernel = createNodeKernel();
+    try {
+      const result = await kernel.runDocument(request.document, {
+        overrides: request.overrides,
+        recordedControls: request.recordedControls,
+        readFile: fileReaderFor(request.folder),
+        onCellStart: (start) => post({ type: "start", start }),
+        onProgress: (progress) => post({ type: "progress", progress }),
+      });
+      post({ type: "result", result });
+    } catch (e) {
+      post({ type: "failed", message: e instanceof Error ? `${e.name}: ${e.message}` : String(e), ...(e instanceof Error && e.stack ? { stack: e.stack } : {}) });
+    } finally {
+      kernel.dispose();
+    }
+  });
+}
