@@ -6,6 +6,7 @@ import { EXIT, InputError, UsageError } from "./errors.js";
 import { EXPORT_HELP, exportCommand } from "./commands/export.js";
 import { NEW_HELP, newCommand } from "./commands/new.js";
 import { RUN_HELP, runCommand } from "./commands/run.js";
+import { SERVE_HELP, serveCommand } from "./commands/serve.js";
 import { VERIFY_HELP, verifyCommand } from "./commands/verify.js";
 import type { Io } from "./io.js";
 import { TOOL_VERSION } from "./versions.js";
@@ -15,6 +16,7 @@ const COMMANDS: Record<string, { help: string; run: (argv: readonly string[], io
   verify: { help: VERIFY_HELP, run: verifyCommand },
   new: { help: NEW_HELP, run: newCommand },
   export: { help: EXPORT_HELP, run: exportCommand },
+  serve: { help: SERVE_HELP, run: serveCommand },
 };
 
 export const MAIN_HELP = `Usage: conebook COMMAND [options]
@@ -24,6 +26,7 @@ Commands:
   verify FILE    rerun a document and compare with its recorded outputs
   new TEMPLATE   a new document from a template (-o FILE, --set, --data)
   export FILE    a self-contained HTML report (-o report.html)
+  serve [FILE]   the workbench page: read, edit, run and save documents in a browser
 
 conebook COMMAND --help shows a command's options. conebook --version shows the version.
 Exit codes: 0 ok; 1 a check failed; 2 usage or input error.`;
