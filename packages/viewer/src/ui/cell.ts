@@ -284,7 +284,7 @@ export class CbCell extends LitElement {
   }
 
   #frameKey(e: KeyboardEvent): void {
-    if (e.target !== e.currentTarget) return;
+    if (e.target !== e.currentTarget || e.altKey || e.ctrlKey || e.metaKey) return;
     if (e.key === "Enter" && !e.ctrlKey && !e.shiftKey && !e.metaKey) {
       e.preventDefault();
       void this.focusEditor();
@@ -414,7 +414,7 @@ export class CbCell extends LitElement {
   override render() {
     const c = this.cell;
     const docProblems = this.problems.filter((p) => p.severity === "error");
-    return html`<div class="frame" tabindex="0" aria-label=${`${CELL_KINDS.find((k) => k.kind === c.kind)?.label ?? c.kind} cell ${c.id}, ${this.position + 1} of ${this.count}`} @keydown=${this.#frameKey} @focus=${() => this.#send("select")}>
+    return html`<div class="frame" tabindex="0" aria-label=${`${CELL_KINDS.find((k) => k.kind === c.kind)?.label ?? c.kind} cell ${c.id}, ${this.position + 1} of ${this.count}`} @keydown=${this.#frameKey} @focusin=${() => !this.selected && this.#send("select")}>
       ${this.#bar()} ${this.#body()}
       ${docProblems.length && c.kind !== "chart" ? html`<ul class="problems" role="alert">${docProblems.map((p) => html`<li>line ${p.line}: ${p.message}</li>`)}</ul>` : nothing}
       ${c.kind !== "narrative" && this.shown ? html`<cb-outputs .outputs=${this.shown.outputs} cellId=${c.id} file=${this.file} .sourceLine=${this.shown.run?.sourceLines[c.id]}></cb-outputs>` : nothing}

@@ -870,7 +870,7 @@ export class CbWorkbench extends LitElement {
 
   #help() {
     if (!this.helpOpen) return nothing;
-    return html`<dialog open aria-labelledby="help-title" @keydown=${(e: KeyboardEvent) => e.key === "Escape" && (this.helpOpen = false)}>
+    return html`<dialog class="help" aria-labelledby="help-title" @close=${() => (this.helpOpen = false)}>
       <h2 id="help-title">Keys</h2>
       <table>
         <tbody>
@@ -884,7 +884,7 @@ export class CbWorkbench extends LitElement {
   #conflictDialog() {
     const c = this.conflict;
     if (!c) return nothing;
-    return html`<dialog open aria-labelledby="conflict-title" class="conflict">
+    return html`<dialog aria-labelledby="conflict-title" class="conflict" @cancel=${(e: Event) => e.preventDefault()}>
       <h2 id="conflict-title">The file changed on disk</h2>
       <p>${this.path} was changed by someone or something else after this page opened it. Nothing was overwritten. What should happen to your version?</p>
       <div class="actions">
@@ -958,6 +958,11 @@ export class CbWorkbench extends LitElement {
           </button>`,
         )}
       </div>`;
+  }
+
+  override updated(): void {
+    // Dialogs open modal (focus stays inside, the page behind is inert) as soon as they are rendered.
+    for (const d of this.renderRoot.querySelectorAll("dialog")) if (!d.open) d.showModal();
   }
 
   override render() {
