@@ -120,8 +120,11 @@ describe("conebook serve: who gets in", () => {
     const foreign = await send("GET", api("session"), { headers: { origin: "http://attacker.example" } });
     expect(foreign.status).toBe(403);
     expect(foreign.body).toMatch(/attacker\.example/);
-    const crossSite = await send("GET", api("session"), { headers: { "sec-fetch-site": "cross-site" } });
-    expect(crossSite.status).toBe(403);
+    for (const site of ["cross-site", "same-site"]) {
+      const r = await send("GET", api("session"), { headers: { "sec-fetch-site": site } });
+      expect(r.status, site).toBe(403);
+    }
+    for (const site of ["same-origin", "none"]) expect((await send("GET", api("session"), { headers: { "sec-fetch-site": site } })).status, site).toBe(200);
     const localhost = await send("GET", api("session"), { headers: { host: `localhost:${server.port}`, origin: `http://localhost:${server.port}` } });
     expect(localhost.status).toBe(200);
   });

@@ -5,7 +5,9 @@
  *   - its Host header names this server (127.0.0.1:PORT or localhost:PORT), which defeats DNS rebinding;
  *   - its path starts with the per-start token (`/TOKEN/...`), so only someone given the printed URL gets in;
  *   - an Origin header, when present, is this server's own, and a request that changes anything (PUT, POST)
- *     must carry it; a browser's Sec-Fetch-Site "cross-site" is refused as well;
+ *     must carry it; a browser's Sec-Fetch-Site, when sent, must be "same-origin" (the page's own requests) or
+ *     "none" (the user opened the URL); "same-site" is refused too, since another port of 127.0.0.1 is the
+ *     same site but not this server;
  *   - the method is one the server serves (GET and HEAD for reading, PUT and POST on the API).
  *
  * Every response carries the page's Content-Security-Policy, which allows no remote origin.
@@ -67,7 +69,8 @@ export function checkRequest(req: IncomingMessage, token: string, port: number):
   if (origin !== undefined && !hosts.some((h) => origin === `http://${h}`)) {
     return { status: 403, message: `refused: requests from ${origin} are not accepted; open the page from the URL conebook serve printed` };
   }
-  if (req.headers["sec-fetch-site"] === "cross-site") return { status: 403, message: "refused: a cross-site request" };
+  const site = req.headers["sec-fetch-site"];
+  if (site !== undefined && site !== "same-origin" && site !== "none") return { status: 403, message: `refused: a request from another site or origin (Sec-Fetch-Site ${site})` };
   const method = req.method ?? "";
   if (!["GET", "HEAD", "PUT", "POST"].includes(method)) return { status: 405, message: `refused: method ${method} is not served` };
   if ((method === "PUT" || method === "POST") && origin === undefined) {

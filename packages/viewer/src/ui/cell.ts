@@ -7,7 +7,7 @@
  * workbench turns into a transaction; nothing here changes the document itself.
  */
 import { LitElement, css, html, nothing, type PropertyValues } from "lit";
-import { unsafeHTML } from "lit/directives/unsafe-html.js";
+import { narrativeFragment } from "./narrative.js";
 import { chartSpecSchema, renderNarrative, validateJsonSchema, type Cell, type DataSlot, type Diagnostic } from "@conebook/document";
 import { parseDataTable, type PinCheck } from "@conebook/kernel";
 import type { ApiEntry } from "../model/api-catalogue.js";
@@ -387,7 +387,7 @@ export class CbCell extends LitElement {
       if (this.editing) {
         return html`<cb-editor .value=${c.source} language="markdown" label=${`Text of cell ${c.id} (Markdown)`} .marks=${marks} hint="Write Markdown here; Escape to finish" @cb-edit=${edit}></cb-editor>`;
       }
-      return html`<div class="prose" @dblclick=${() => void this.focusEditor()}>${unsafeHTML(renderNarrative(c.source))}</div>`;
+      return html`<div class="prose" @dblclick=${() => void this.focusEditor()}>${narrativeFragment(renderNarrative(c.source))}</div>`;
     }
     if (c.kind === "code") {
       return html`<cb-editor .value=${c.source} language="ts" label=${`Code of cell ${c.id} (TypeScript)`} .marks=${marks} .completions=${this.completions} hint="TypeScript: aq., show., charts., control(...)" @cb-edit=${edit}></cb-editor>`;

@@ -34,16 +34,23 @@ export function refusingLoader(refused: string[]) {
   return l;
 }
 
-/** Removes what a document may not pass to the chart library: usermeta anywhere in the spec tree. */
+/**
+ * Removes what a document may not pass to the chart library: `usermeta` anywhere in the spec tree, and the
+ * `href` channel of every encoding (a chart in the page links nowhere; even an emptied link would reload the
+ * page and drop unsaved edits). Inline data values are left as they are.
+ */
 export function lockedSpec(spec: Record<string, unknown>): Record<string, unknown> {
-  const strip = (node: unknown): unknown => {
-    if (Array.isArray(node)) return node.map(strip);
+  const strip = (node: unknown, parent: string): unknown => {
+    if (Array.isArray(node)) return node.map((x) => strip(x, parent));
     if (node === null || typeof node !== "object") return node;
     const out: Record<string, unknown> = {};
-    for (const [k, v] of Object.entries(node as Record<string, unknown>)) if (k !== "usermeta") out[k] = k === "values" ? v : strip(v);
+    for (const [k, v] of Object.entries(node as Record<string, unknown>)) {
+      if (k === "usermeta" || (k === "href" && parent === "encoding")) continue;
+      out[k] = k === "values" ? v : strip(v, k);
+    }
     return out;
   };
-  return strip(spec) as Record<string, unknown>;
+  return strip(spec, "") as Record<string, unknown>;
 }
 
 const CONFIG = {
@@ -87,6 +94,10 @@ export class CbChart extends LitElement {
 
   constructor() {
     super();
+    // No link inside a chart is ever followed (see lockedSpec).
+    this.addEventListener("click", (e) => {
+      if (e.composedPath().some((n) => n instanceof Element && n.tagName.toLowerCase() === "a")) e.preventDefault();
+    }, { capture: true });
     this.spec = undefined;
     this.label = "chart";
     this.problem = undefined;
