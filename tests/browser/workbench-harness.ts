@@ -70,6 +70,8 @@ export async function startWorkbench(chromiumPath: string, extra: Record<string,
       page.on("console", (m) => m.type() === "error" && log.consoleErrors.push(m.text()));
       page.on("pageerror", (e) => log.pageErrors.push(e.message));
       page.on("dialog", (d) => {
+        // Leaving a page with unsaved edits asks first (the recovery copy keeps them); tests leave on purpose.
+        if (d.type() === "beforeunload") return void d.accept();
         log.dialogs.push(`${d.type()}: ${d.message()}`);
         void d.dismiss();
       });

@@ -155,6 +155,8 @@ describe("a hostile document", () => {
     // Every chart either drew without reaching out or says why it could not be drawn.
     const charts = page.locator('cb-cell[data-id="charts"] cb-chart');
     expect(await charts.count()).toBe(7);
+    for (const chart of await charts.all()) await chart.scrollIntoViewIfNeeded();
+    await page.locator('cb-cell[data-id="table-chart"]').scrollIntoViewIfNeeded();
     await expect.poll(() => page.locator('cb-cell[data-id="charts"] cb-chart svg').count(), { timeout: 15_000 }).toBeGreaterThanOrEqual(4);
     // Click every mark that carries a link, and hover over everything: nothing may navigate, open or alert.
     const navigations: string[] = [];

@@ -316,7 +316,17 @@ export class CbCell extends LitElement {
     return marks;
   }
 
+  #problemsFor: { source: string; problems: string[] } | undefined;
+
   #chartProblems(): string[] {
+    if (this.cell.kind !== "chart") return [];
+    if (this.#problemsFor?.source === this.cell.source) return this.#problemsFor.problems;
+    const problems = this.#readChartProblems();
+    this.#problemsFor = { source: this.cell.source, problems };
+    return problems;
+  }
+
+  #readChartProblems(): string[] {
     if (this.cell.kind !== "chart") return [];
     const reading = readChartSource(this.cell.source, this.cell.specFormat);
     if ("problem" in reading) return [`The chart specification does not read as ${this.cell.specFormat.toUpperCase()}: ${reading.problem}`];

@@ -73,6 +73,10 @@ export class CbChart extends LitElement {
   declare notes: ThinNote[];
   #result: Result | undefined;
   #drawn = 0;
+  /** The spec last drawn, as JSON: a rerun that yields the same chart does not redraw it. */
+  #drawnKey = "";
+  #visible = false;
+  #observer: IntersectionObserver | undefined;
   /** What the loader was asked for (always refused); for tests and the console. */
   refused: string[] = [];
 
@@ -105,16 +109,32 @@ export class CbChart extends LitElement {
   }
 
   override updated(changed: PropertyValues<this>): void {
-    if (changed.has("spec")) void this.#draw();
+    if (changed.has("spec") && this.#visible) void this.#draw();
+  }
+
+  override firstUpdated(): void {
+    // Charts are drawn when they come near the screen (and redrawn only when their spec changed), so opening
+    // or rerunning a long document does not draw every chart at once on the main thread.
+    this.#observer = new IntersectionObserver(
+      (entries) => {
+        this.#visible = entries.some((e) => e.isIntersecting);
+        if (this.#visible) void this.#draw();
+      },
+      { rootMargin: "600px 0px" },
+    );
+    this.#observer.observe(this);
   }
 
   async #draw(): Promise<void> {
-    const ticket = ++this.#drawn;
-    this.#result?.finalize();
-    this.#result = undefined;
     const target = this.renderRoot.querySelector<HTMLElement>(".chart");
     if (!target || !this.spec) return;
     const { spec, notes } = thinSpec(lockedSpec(this.spec));
+    const key = JSON.stringify(spec);
+    if (key === this.#drawnKey && this.#result) return;
+    const ticket = ++this.#drawn;
+    this.#result?.finalize();
+    this.#result = undefined;
+    this.#drawnKey = key;
     try {
       const result = await embed(target, spec as never, {
         renderer: "svg",
@@ -140,19 +160,22 @@ export class CbChart extends LitElement {
       this.dispatchEvent(new CustomEvent("cb-chart-drawn", { bubbles: true, composed: true }));
     } catch (e) {
       if (ticket !== this.#drawn) return;
+      this.#drawnKey = "";
       this.problem = e instanceof Error ? e.message : String(e);
     }
   }
 
   override disconnectedCallback(): void {
     super.disconnectedCallback();
+    this.#observer?.disconnect();
     this.#result?.finalize();
     this.#result = undefined;
+    this.#drawnKey = "";
   }
 
   override connectedCallback(): void {
     super.connectedCallback();
-    if (this.hasUpdated && !this.#result) void this.#draw();
+    if (this.hasUpdated) this.#observer?.observe(this);
   }
 
   override render() {

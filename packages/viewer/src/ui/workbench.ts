@@ -17,7 +17,7 @@ import { outlineOf } from "../model/outline.js";
 import { dropRecovery, keepRecovery, readRecovery, type RecoveryCopy } from "../model/recovery.js";
 import { textToSave } from "../model/recording.js";
 import { recordedRunOverrides } from "../model/run-overrides.js";
-import { currentPrefix, executablesOf, recordable, shownResults, startRun, withProgress, withResult, withStop, type RunMode, type RunRecord } from "../model/runs.js";
+import { currentPrefix, executablesOf, recordable, shownResults, startRun, withProgress, withResult, withStop, type RunMode, type RunRecord, type ShownResult } from "../model/runs.js";
 import { DocumentStore } from "../model/store.js";
 import { deleteCell, insertCell, moveCell, replaceCell, type Transaction } from "../model/transaction.js";
 import * as server from "../server-api.js";
@@ -32,6 +32,22 @@ import "./cell.js";
 import "./editor.js";
 
 const catalogue = apiCatalogue(apiDoc);
+
+const CELL_FENCE = /^ {0,3}(?:`{3,}|~{3,})\s*\w+\s+(?:code|data|chart):([^\s]+)/;
+
+/**
+ * The file line of each fenced cell's first source line in `text`, found from the opening fences (a cheap scan
+ * instead of a second parse on the main thread; the worker parses the text itself). Used to place errors.
+ */
+export function sourceLinesOf(text: string): Record<string, number> {
+  const out: Record<string, number> = {};
+  const lines = text.split("\n");
+  for (let i = 0; i < lines.length; i++) {
+    const m = CELL_FENCE.exec(lines[i]!);
+    if (m && !Object.hasOwn(out, m[1]!)) out[m[1]!] = i + 2;
+  }
+  return out;
+}
 const RECOVERY_DELAY_MS = 400;
 const DEFAULT_CELL_LIMIT_MS = 10_000;
 
@@ -630,12 +646,7 @@ export class CbWorkbench extends LitElement {
       this.#say(`The document cannot be run as it is: ${(e as Error).message}`, "error");
       return;
     }
-    const sourceLines: Record<string, number> = {};
-    try {
-      for (const c of parseDocument(text).document.cells) sourceLines[c.id] = c.sourceStart.line;
-    } catch {
-      // The worker reports the problem.
-    }
+    const sourceLines = sourceLinesOf(text);
     let record = startRun(this.#runIds++, mode, runDoc, cellId, sourceLines, performance.now());
     const files: Record<string, Uint8Array> = {};
     for (const cell of runDoc.cells) {
@@ -657,6 +668,7 @@ export class CbWorkbench extends LitElement {
     this.requestUpdate();
     const limit = doc.header.timeLimitMs ?? DEFAULT_CELL_LIMIT_MS;
     const end = await this.kernel.run({ text, file: this.path, overrides: recordedRunOverrides(doc), files }, limit, (p) => update(withProgress(record, p.cellId, p.status, p.elapsedMs)));
+    performance.mark("conebook-result-received");
     if (end.type === "result") {
       update(withResult(record, end.result, performance.now()));
       const failed = Object.entries(end.result.status).filter(([, s]) => s === "error").map(([id]) => id);
@@ -917,10 +929,24 @@ export class CbWorkbench extends LitElement {
       </div>`;
   }
 
+  #shownCache = new Map<string, ShownResult>();
+
+  /** The same ShownResult object while nothing about it changed, so cells that did not change do not re-render. */
+  #stableShown(fresh: Map<string, ShownResult>): Map<string, ShownResult> {
+    const out = new Map<string, ShownResult>();
+    for (const [id, r] of fresh) {
+      const old = this.#shownCache.get(id);
+      const same = old !== undefined && old.source === r.source && old.outputs === r.outputs && old.status === r.status && old.ms === r.ms && old.outOfDate === r.outOfDate && old.run === r.run;
+      out.set(id, same ? old : r);
+    }
+    this.#shownCache = out;
+    return out;
+  }
+
   #cells() {
     const store = this.store!;
     const doc = store.doc;
-    const shown = shownResults(doc, this.runs, this.opened ?? doc);
+    const shown = this.#stableShown(shownResults(doc, this.runs, this.opened ?? doc));
     const pins = new Map(this.pins.map((p) => [p.cellId, p]));
     const problems = new Map<string, Diagnostic[]>();
     for (const d of this.diagnostics) if (d.cellId !== undefined) problems.set(d.cellId, [...(problems.get(d.cellId) ?? []), d]);
