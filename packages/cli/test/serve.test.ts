@@ -4,7 +4,9 @@
  * pinned data files. Requests are raw node:http requests, so every header is exactly as written here.
  * The documents are small invented ones written to a temporary folder.
  */
+import { spawn } from "node:child_process";
 import { request } from "node:http";
+import { fileURLToPath } from "node:url";
 import { mkdir, mkdtemp, readFile, readdir, rm, symlink, writeFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
@@ -274,4 +276,36 @@ describe("opening a browser", () => {
     expect(browserCommand("http://x/", { DISPLAY: ":0" }, "linux")).toEqual(["xdg-open", ["http://x/"]]);
     expect(browserCommand("http://x/", {}, "darwin")).toEqual(["open", ["http://x/"]]);
   });
+});
+
+describe("the conebook serve command", () => {
+  it("starts on the demo, prints a URL that serves the page and the document, and stops on SIGTERM", async () => {
+    const bin = fileURLToPath(new URL("../bin/conebook.js", import.meta.url));
+    const root = fileURLToPath(new URL("../../../", import.meta.url));
+    const child = spawn(process.execPath, [bin, "serve", "notebooks/kestrel-moor-constant-rate.cone.md", "--port", "0", "--no-open"], { cwd: root, stdio: ["ignore", "pipe", "pipe"] });
+    let out = "";
+    child.stdout.on("data", (c: Buffer) => (out += c.toString()));
+    child.stderr.on("data", (c: Buffer) => (out += c.toString()));
+    const url = await new Promise<string>((resolve, reject) => {
+      const timer = setTimeout(() => reject(new Error(`no URL printed: ${out}`)), 25_000);
+      child.stdout.on("data", () => {
+        const m = /Conebook workbench: (http:\/\/127\.0\.0\.1:\d+\/[A-Za-z0-9_-]{32}\/\?open=kestrel-moor-constant-rate\.cone\.md)/.exec(out);
+        if (m) {
+          clearTimeout(timer);
+          resolve(m[1]!);
+        }
+      });
+    });
+    const page = await fetch(url);
+    expect(page.status).toBe(200);
+    expect(await page.text()).toMatch(/<title>Conebook workbench<\/title>/);
+    const doc = await fetch(url.replace("?open=", "api/document?path="));
+    expect(((await doc.json()) as { text: string }).text).toMatch(/^---\nconebook: 1\ntitle: Constant-rate test of supply borehole KM-PW1/);
+    const code = await new Promise<number | null>((resolve) => {
+      child.on("exit", (c) => resolve(c));
+      child.kill("SIGTERM");
+    });
+    expect(code).toBe(0);
+    expect(out).toMatch(/stopped\n$/);
+  }, 40_000);
 });
