@@ -204,6 +204,34 @@ describe("stopping a run", () => {
 });
 
 describe("bad input", () => {
+  it("shows a failed cell's error below it and marks it at the user's line in the editor", async () => {
+    await openDocument(wb, page, DEMO);
+    await typeAtEnd(page, "compare", "\nconst broken = undefinedName * 2;");
+    await runAndWait(page);
+    const error = cell("compare").locator("cb-outputs .error");
+    expect(await error.innerText()).toMatch(/^Error kestrel-moor-constant-rate\.cone\.md:\d+:\d+ \(line 18 of the cell\): ReferenceError: .*undefinedName/);
+    await expect.poll(() => cell("compare").locator("cb-editor .cm-lint-marker-error").count()).toBe(1);
+    const markedLine = await cell("compare").locator("cb-editor .cm-gutterElement:has(.cm-lint-marker-error)").count();
+    expect(markedLine).toBe(1);
+    expect(await cell("residual-plot").locator(".status").innerText()).toMatch(/^ran in \d+ ms$/);
+    expect(await cell("result").locator(".status").innerText()).toBe("not run");
+    expect(await statusLine(page)).toMatch(/^Cell compare failed/);
+    await error.scrollIntoViewIfNeeded();
+    await shot("12-failed-cell");
+    await page.keyboard.press("Control+z");
+  });
+
+  it("reads pinned data through the server and says so when a data file changed since it was pinned", async () => {
+    const csv = join(wb.folder, "data", "kestrel-moor-km-ob2.csv");
+    const original = await readFile(csv, "utf8");
+    await writeFile(csv, original.replace("\n2880.00,", "\n2880.50,"));
+    await openDocument(wb, page, DEMO);
+    await expect.poll(() => cell("ob2-record").locator(".pin .bad").innerText()).toMatch(/^The file changed since it was pinned: it now has SHA-256 [0-9a-f]{64}\.$/);
+    await runAndWait(page);
+    expect(await cell("ob2-record").locator("cb-outputs .error").innerText()).toMatch(/the file data\/kestrel-moor-km-ob2\.csv has SHA-256 [0-9a-f]{64}, but the document pins e04dd73e9ee2715281008108b16868f8edf2797b20cd9559ff70403ac96c0af5/);
+    await writeFile(csv, original);
+  });
+
   it("opens a document that does not parse in a plain-text editor with the error's line and column marked", async () => {
     await openDocument(wb, page, "broken.cone.md");
     const banner = page.locator("cb-workbench .banner.error");

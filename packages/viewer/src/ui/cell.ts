@@ -342,7 +342,7 @@ export class CbCell extends LitElement {
     return html`<div class="bar">
       <span class="kind">${kindLabel}</span>
       <span class="id" title="cell id">${c.id}</span>
-      ${executable && status ? html`<span class="status ${status}" role="status">${STATUS_WORDS[status] ?? status}${shown?.ms !== undefined && status !== "queued" && status !== "running" ? ` in ${formatMs(shown.ms)}` : ""}</span>` : nothing}
+      ${executable && status ? html`<span class="status ${status}" role="status">${STATUS_WORDS[status] ?? status}${shown?.ms !== undefined && (status === "ok" || status === "error") ? ` in ${formatMs(shown.ms)}` : ""}</span>` : nothing}
       ${executable && !status && c.outputs.length > 0 ? html`<span class="status" title="outputs as recorded in the file">recorded</span>` : nothing}
       ${executable && shown?.outOfDate ? html`<span class="stale" title="this cell or one above it changed since these outputs were made">out of date</span>` : nothing}
       <span class="spacer"></span>
