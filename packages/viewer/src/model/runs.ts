@@ -100,6 +100,8 @@ export interface ShownResult {
   /** True when the result came from a run and the cell or a cell above it changed since. */
   outOfDate: boolean;
   run?: RunRecord;
+  /** True when the outputs are the earlier ones, shown while the run in progress (`run`) has not reached the cell. */
+  previous?: boolean;
 }
 
 /**
@@ -114,16 +116,24 @@ export function shownResults(doc: ConebookDocument, runs: readonly RunRecord[], 
   const openedRun = { header: opened.header, executables: executablesOf(opened) };
   const openedPrefix = currentPrefix(openedRun, doc);
   executables.forEach((cell, index) => {
+    // A cell the newest run has not reached yet keeps showing what it showed before, with the run's status.
+    let pending: RunRecord | undefined;
     for (let k = runs.length - 1; k >= 0; k--) {
       const run = runs[k]!;
       const status = run.status[cell.id];
       if (status === undefined) continue;
+      if ((status === "queued" || status === "running") && run.outputs[cell.id] === undefined) {
+        pending ??= run;
+        continue;
+      }
       const outputs = run.outputs[cell.id] ?? [];
       const ms = run.ms[cell.id];
-      out.set(cell.id, { source: "run", outputs, status, ...(ms !== undefined ? { ms } : {}), outOfDate: index >= prefixes.get(run)!, run });
+      const shown: ShownResult = { source: "run", outputs, status, ...(ms !== undefined ? { ms } : {}), outOfDate: index >= prefixes.get(run)!, run };
+      out.set(cell.id, pending ? { ...shown, status: pending.status[cell.id]!, run: pending, previous: true } : shown);
       return;
     }
-    out.set(cell.id, { source: "recorded", outputs: cell.outputs, outOfDate: index >= openedPrefix });
+    const recorded: ShownResult = { source: "recorded", outputs: cell.outputs, outOfDate: index >= openedPrefix };
+    out.set(cell.id, pending ? { ...recorded, status: pending.status[cell.id]!, run: pending, previous: true } : recorded);
   });
   return out;
 }

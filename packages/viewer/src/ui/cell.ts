@@ -306,7 +306,7 @@ export class CbCell extends LitElement {
     }
     const shown = this.shown;
     const sourceLine = shown?.run?.sourceLines[this.cell.id];
-    if (shown && !shown.outOfDate && sourceLine !== undefined) {
+    if (shown && !shown.outOfDate && !shown.previous && sourceLine !== undefined) {
       for (const o of shown.outputs) {
         if (o.type === "error" && o.line !== undefined && o.line >= sourceLine) {
           marks.push({ line: o.line - sourceLine + 1, ...(o.column !== undefined ? { column: o.column } : {}), message: o.message, severity: "error" });
@@ -336,7 +336,7 @@ export class CbCell extends LitElement {
   #bar() {
     const c = this.cell;
     const shown = this.shown;
-    const status = shown?.source === "run" ? shown.status : undefined;
+    const status = shown?.status;
     const kindLabel = CELL_KINDS.find((k) => k.kind === c.kind)?.label ?? c.kind;
     const executable = c.kind !== "narrative";
     return html`<div class="bar">
@@ -344,6 +344,7 @@ export class CbCell extends LitElement {
       <span class="id" title="cell id">${c.id}</span>
       ${executable && status ? html`<span class="status ${status}" role="status">${STATUS_WORDS[status] ?? status}${shown?.ms !== undefined && (status === "ok" || status === "error") ? ` in ${formatMs(shown.ms)}` : ""}</span>` : nothing}
       ${executable && !status && c.outputs.length > 0 ? html`<span class="status" title="outputs as recorded in the file">recorded</span>` : nothing}
+      ${executable && shown?.previous && shown.outputs.length > 0 ? html`<span class="status" title="the run has not reached this cell yet">earlier outputs</span>` : nothing}
       ${executable && shown?.outOfDate ? html`<span class="stale" title="this cell or one above it changed since these outputs were made">out of date</span>` : nothing}
       <span class="spacer"></span>
       ${executable
@@ -427,7 +428,7 @@ export class CbCell extends LitElement {
     return html`<div class="frame" tabindex="0" aria-label=${`${CELL_KINDS.find((k) => k.kind === c.kind)?.label ?? c.kind} cell ${c.id}, ${this.position + 1} of ${this.count}`} @keydown=${this.#frameKey} @focusin=${() => !this.selected && this.#send("select")}>
       ${this.#bar()} ${this.#body()}
       ${docProblems.length && c.kind !== "chart" ? html`<ul class="problems" role="alert">${docProblems.map((p) => html`<li>line ${p.line}: ${p.message}</li>`)}</ul>` : nothing}
-      ${c.kind !== "narrative" && this.shown ? html`<cb-outputs .outputs=${this.shown.outputs} cellId=${c.id} file=${this.file} .sourceLine=${this.shown.run?.sourceLines[c.id]}></cb-outputs>` : nothing}
+      ${c.kind !== "narrative" && this.shown ? html`<cb-outputs .outputs=${this.shown.outputs} cellId=${c.id} file=${this.file} .sourceLine=${this.shown.previous ? undefined : this.shown.run?.sourceLines[c.id]}></cb-outputs>` : nothing}
     </div>`;
   }
 }

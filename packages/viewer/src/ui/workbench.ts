@@ -17,7 +17,7 @@ import { outlineOf } from "../model/outline.js";
 import { dropRecovery, keepRecovery, readRecovery, type RecoveryCopy } from "../model/recovery.js";
 import { textToSave } from "../model/recording.js";
 import { recordedRunOverrides } from "../model/run-overrides.js";
-import { currentPrefix, executablesOf, recordable, shownResults, startRun, withProgress, withResult, withStop, type RunMode, type RunRecord, type ShownResult } from "../model/runs.js";
+import { executablesOf, recordable, shownResults, startRun, withProgress, withResult, withStop, type RunMode, type RunRecord, type ShownResult } from "../model/runs.js";
 import { DocumentStore } from "../model/store.js";
 import { deleteCell, insertCell, moveCell, replaceCell, type Transaction } from "../model/transaction.js";
 import * as server from "../server-api.js";
@@ -753,10 +753,8 @@ export class CbWorkbench extends LitElement {
     const splices = store.doc.cells.flatMap((c, i) => (byId.get(c.id) !== c ? [{ from: i, to: i + 1, insert: [byId.get(c.id)!] }] : []));
     const latest = this.runs[this.runs.length - 1];
     store.dispatch({ splices, header: next.header, userEvent: "record", addToHistory: false });
-    if (latest && currentPrefix({ ...latest, header: latest.header }, store.doc) >= 0) {
-      const rebased = { ...latest, header: store.doc.header, executables: executablesOf(store.doc) };
-      this.runs = [...this.runs.slice(0, -1), rebased];
-    }
+    // The recorded run ran exactly these cells (only their recorded outputs changed): it stays current.
+    if (latest) this.runs = [...this.runs.slice(0, -1), { ...latest, header: store.doc.header, executables: executablesOf(store.doc) }];
   }
 
   async #saveRaw(): Promise<void> {
@@ -936,7 +934,15 @@ export class CbWorkbench extends LitElement {
     const out = new Map<string, ShownResult>();
     for (const [id, r] of fresh) {
       const old = this.#shownCache.get(id);
-      const same = old !== undefined && old.source === r.source && old.outputs === r.outputs && old.status === r.status && old.ms === r.ms && old.outOfDate === r.outOfDate && old.run === r.run;
+      const same =
+        old !== undefined &&
+        old.source === r.source &&
+        old.outputs === r.outputs &&
+        old.status === r.status &&
+        old.ms === r.ms &&
+        old.outOfDate === r.outOfDate &&
+        old.previous === r.previous &&
+        old.run?.sourceLines === r.run?.sourceLines;
       out.set(id, same ? old : r);
     }
     this.#shownCache = out;
