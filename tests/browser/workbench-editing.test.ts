@@ -10,7 +10,7 @@ import { join } from "node:path";
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import { temporaryPathFor } from "../../packages/cli/src/atomic-write.js";
-import { DEMO, SCREENSHOTS, lastRunOutputs, openDocument, runAndWait, startWorkbench, statusLine, typeAtEnd, waitForState, type PageLog, type Workbench } from "./workbench-harness.js";
+import { DEMO, SCREENSHOTS, lastRunOutputs, openDocument, runAndWait, startWorkbench, editorText, statusLine, typeAtEnd, waitForState, type PageLog, type Workbench } from "./workbench-harness.js";
 
 const ENDLESS = `---
 conebook: 1
@@ -123,7 +123,7 @@ describe("the workbench page on the demo", () => {
     expect(newOutputs).toContain('"label":"twice T, an edit"');
     await page.reload();
     await waitForState(page, "conebook-interactive");
-    expect(await cell("fit-theis").locator("cb-editor .cm-content").innerText()).toContain(editedLine);
+    expect(await editorText(page, "fit-theis")).toContain(editedLine);
     expect(await page.locator("cb-workbench .state").first().innerText()).toBe("saved");
   });
 
@@ -156,7 +156,7 @@ describe("the workbench page on the demo", () => {
     await page.keyboard.press("Control+s");
     await expect.poll(() => statusLine(page)).toMatch(/^Not saved: saving kestrel-moor-constant-rate\.cone\.md: EEXIST.*The file on disk is as it was; your edits are still here/);
     expect(await fileText(DEMO)).toBe(before);
-    expect(await cell("compare").locator("cb-editor .cm-content").innerText()).toContain("// kept although the disk refused");
+    expect(await editorText(page, "compare")).toContain("// kept although the disk refused");
     const kept = await page.evaluate(`localStorage.getItem('conebook.recovery:${DEMO}')`);
     expect(JSON.parse(kept as string).text).toContain("// kept although the disk refused");
   });
@@ -173,7 +173,7 @@ describe("the workbench page on the demo", () => {
     await expect.poll(() => banner.count()).toBe(1);
     await shot("05-recovery-offered");
     await banner.getByRole("button", { name: "Restore them" }).click();
-    expect(await cell("compare").locator("cb-editor .cm-content").innerText()).toContain("// kept although the disk refused");
+    expect(await editorText(page, "compare")).toContain("// kept although the disk refused");
     expect(await page.locator("cb-workbench .state").first().innerText()).toBe("unsaved changes");
   });
 });
@@ -244,6 +244,7 @@ describe("bad input", () => {
 
   it("shows a chart spec's validation error in the cell while it is typed", async () => {
     await openDocument(wb, page, DEMO);
+    await cell("semilog").scrollIntoViewIfNeeded();
     await cell("semilog").locator("cb-editor .cm-content").click();
     await page.keyboard.press("Control+Home");
     await page.keyboard.type("usermeta: {embedOptions: {actions: true}}\n");
@@ -278,7 +279,7 @@ describe("editing by keyboard", () => {
     await shot("08-keyboard-editing");
     await page.keyboard.press("Control+z"); // kind change of load
     await page.keyboard.press("Control+z"); // the typing in load
-    expect(await cell("load").locator("cb-editor .cm-content").innerText()).not.toContain("// second edit");
+    expect(await editorText(page, "load")).not.toContain("// second edit");
     await page.keyboard.press("Control+z"); // the move
     expect((await around()).slice(0, 2)).toEqual(["preview", "code-1"]);
     await page.keyboard.press("Control+Shift+z");

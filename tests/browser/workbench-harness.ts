@@ -118,8 +118,15 @@ export function statusLine(page: Page): Promise<string> {
   return page.locator("cb-workbench .status-line").innerText();
 }
 
+/** The editor text of cell `id` (editors are built when they come near the screen, so the cell is scrolled to). */
+export async function editorText(page: Page, id: string): Promise<string> {
+  await page.locator(`cb-cell[data-id="${id}"]`).scrollIntoViewIfNeeded();
+  return page.locator(`cb-cell[data-id="${id}"] cb-editor .cm-content`).innerText();
+}
+
 /** Types `text` at the end of the editor of cell `id`. */
 export async function typeAtEnd(page: Page, id: string, text: string): Promise<void> {
+  await page.locator(`cb-cell[data-id="${id}"]`).scrollIntoViewIfNeeded();
   const content = page.locator(`cb-cell[data-id="${id}"] cb-editor .cm-content`);
   await content.click();
   await page.keyboard.press("Control+End");

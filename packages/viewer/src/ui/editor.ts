@@ -1,11 +1,13 @@
 /**
- * <cb-editor>: one CodeMirror 6 editor in a shadow root (created in firstUpdated with `root: this.shadowRoot`,
+ * <cb-editor>: one CodeMirror 6 editor in a shadow root (created with `root: this.shadowRoot` once the editor
+ * comes within about two screens of the viewport, or when it is focused or clicked; until then its text is
+ * shown as plain preformatted text, so opening a long document does not build every editor at once;
  * destroyed on disconnect). It holds no history of its own: every change is reported as a `cb-edit` event with
  * the new text, which the page turns into a transaction; undo and redo are the page's (across cells). When the
  * `value` property changes from outside (undo, reload) the editor takes the new text without reporting it back.
  * Keys the page handles (run, save, undo, move...) are reported as `cb-key` events.
  */
-import { LitElement, css, html, type PropertyValues } from "lit";
+import { LitElement, css, html, nothing, type PropertyValues } from "lit";
 import { autocompletion, closeBrackets, closeBracketsKeymap, completionKeymap, type CompletionContext, type CompletionResult } from "@codemirror/autocomplete";
 import { defaultKeymap, indentWithTab } from "@codemirror/commands";
 import { javascript, typescriptLanguage } from "@codemirror/lang-javascript";
@@ -127,6 +129,17 @@ export class CbEditor extends LitElement {
       font-family: var(--cb-mono);
       line-height: 1.45;
     }
+    .fallback {
+      margin: 0;
+      padding: 4px 6px 4px 34px;
+      font-family: var(--cb-mono);
+      font-size: 13px;
+      line-height: 1.45;
+      white-space: pre-wrap;
+      overflow-wrap: anywhere;
+      max-height: 36rem;
+      overflow: hidden;
+    }
     .cm-gutters {
       background: #f2f0ea;
       color: #7b8589;
@@ -150,11 +163,13 @@ export class CbEditor extends LitElement {
   }
 
   override focus(): void {
+    this.#create();
     this.#view?.focus();
   }
 
   /** Places the cursor at a 1-based line and column and focuses the editor. */
   reveal(line: number, column = 1): void {
+    this.#create();
     const view = this.#view;
     if (!view) return;
     const l = view.state.doc.line(Math.min(Math.max(1, line), view.state.doc.lines));
@@ -163,7 +178,17 @@ export class CbEditor extends LitElement {
     view.focus();
   }
 
+  #observer: IntersectionObserver | undefined;
+
   override firstUpdated(): void {
+    this.#observer = new IntersectionObserver((entries) => entries.some((e) => e.isIntersecting) && this.#create(), { rootMargin: "1200px 0px" });
+    this.#observer.observe(this);
+  }
+
+  /** Builds the CodeMirror view (once). */
+  #create(): void {
+    if (this.#view || !this.isConnected) return;
+    this.#observer?.disconnect();
     const pageKeys = Prec.highest(
       keymap.of(
         Object.entries(EDITOR_KEYS).map(([key, command]) => ({
@@ -199,7 +224,9 @@ export class CbEditor extends LitElement {
         }),
       ],
     });
-    this.#view = new EditorView({ state, parent: this.renderRoot as ShadowRoot, root: this.renderRoot as ShadowRoot });
+    const host = this.renderRoot.querySelector<HTMLElement>(".host")!;
+    this.#view = new EditorView({ state, parent: host, root: this.renderRoot as ShadowRoot });
+    this.requestUpdate();
     this.#applyMarks();
   }
 
@@ -229,6 +256,7 @@ export class CbEditor extends LitElement {
 
   override disconnectedCallback(): void {
     super.disconnectedCallback();
+    this.#observer?.disconnect();
     this.#view?.destroy();
     this.#view = undefined;
   }
@@ -236,11 +264,16 @@ export class CbEditor extends LitElement {
   override connectedCallback(): void {
     super.connectedCallback();
     // Reconnected after a move in the list: the editor is made anew.
-    if (this.hasUpdated && !this.#view) this.firstUpdated();
+    if (this.hasUpdated && !this.#view) {
+      this.requestUpdate();
+      this.firstUpdated();
+    }
   }
 
   override render() {
-    return html``;
+    return html`<div class="host"></div>${this.#view
+        ? nothing
+        : html`<pre class="fallback" tabindex="0" aria-label=${this.label} @focus=${() => this.focus()} @pointerdown=${() => this.focus()}>${this.value || this.hint}</pre>`}`;
   }
 }
 
