@@ -5,6 +5,7 @@ export default defineConfig({
     include: ["packages/*/test/**/*.test.ts", "tests/**/*.test.ts"],
     exclude: ["**/node_modules/**", "tests/bench/**"],
     pool: "forks",
+    globalSetup: ["tests/browser/global-setup.ts"],
     testTimeout: 30000,
   },
 });

@@ -7,6 +7,7 @@ import { cliBenchmarks } from "./sections/cli.js";
 import { kernelBenchmarks } from "./sections/kernel.js";
 import { laplaceModelBenchmarks } from "./sections/laplace-models.js";
 import { wellFunctionsAndFit } from "./sections/well-functions-and-fit.js";
+import { workbenchBenchmarks } from "./sections/workbench.js";
 
 console.log("# Conebook benchmarks");
 console.log(machineLine());
@@ -14,3 +15,4 @@ printTable("Well functions and fitting (aquifer)", wellFunctionsAndFit());
 printTable("Laplace-domain models (aquifer)", laplaceModelBenchmarks());
 printTable("Sandbox, bridge and documents (kernel)", await kernelBenchmarks());
 printTable("Command line (cli)", cliBenchmarks());
+printTable("Workbench page in Chromium (viewer)", await workbenchBenchmarks());

@@ -3,7 +3,7 @@
  *
  * beforeAll bundles packages/kernel/src/worker.ts (through worker-entry.ts) and a page script with esbuild, serves
  * them with the QuickJS release-sync wasm file from an in-memory server on 127.0.0.1, opens the page in headless
- * Chromium (playwright-core; CONEBOOK_CHROMIUM overrides /usr/bin/chromium), and runs the demo notebook once in
+ * Chromium (playwright-core; the npm-provided build or CONEBOOK_CHROMIUM, see chromium.ts), and runs the demo notebook once in
  * the worker and once in Node through the same function, runDocumentText.
  *
  * Why the demo is compared with the verify tolerance (1e-9, DEFAULT_RTOL) and not bit for bit: cells run in
@@ -21,12 +21,13 @@
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { chromium, type Browser, type Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import { parseDocument } from "@conebook/document";
 import { compareOutputs, createKernel, DEFAULT_RTOL, type RunResult } from "@conebook/kernel";
 import { runDocumentText, type DocumentRunReply } from "@conebook/kernel/worker";
 import { buildTestPage } from "./bundle.js";
+import { launchChromium } from "./chromium.js";
 import { exactDifferences } from "./exact-differences.js";
 import type { Harness, HarnessRequest, HarnessRun } from "./page-harness.js";
 import { startStaticServer, type StaticServer } from "./static-server.js";
@@ -86,8 +87,6 @@ results
 \`\`\`
 `;
 
-const CHROMIUM_ARGS = ["--no-sandbox", "--disable-gpu", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run"];
-
 let server: StaticServer;
 let browser: Browser;
 let page: Page;
@@ -123,13 +122,7 @@ beforeAll(async () => {
   server = await startStaticServer(assets);
 
   const t1 = performance.now();
-  const executablePath = process.env.CONEBOOK_CHROMIUM ?? "/usr/bin/chromium";
-  try {
-    browser = await chromium.launch({ executablePath, headless: true, args: CHROMIUM_ARGS });
-  } catch (e) {
-    const reason = e instanceof Error ? e.message.split("\n")[0] : String(e);
-    throw new Error(`cannot start Chromium at ${executablePath} (${reason}); install it (Debian: apt-get install chromium) or set CONEBOOK_CHROMIUM to its path`);
-  }
+  browser = await launchChromium(inject("chromiumPath"));
   page = await browser.newPage();
   timings.launchMs = performance.now() - t1;
   page.on("console", (m) => {

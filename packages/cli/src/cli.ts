@@ -9,6 +9,7 @@ import { EXPORT_HELP, exportCommand } from "./commands/export.js";
 import { NEW_HELP, newCommand } from "./commands/new.js";
 import { PIN_HELP, pinCommand } from "./commands/pin.js";
 import { RUN_HELP, runCommand } from "./commands/run.js";
+import { SERVE_HELP, serveCommand } from "./commands/serve.js";
 import { VERIFY_HELP, verifyCommand } from "./commands/verify.js";
 import type { Io } from "./io.js";
 import { TOOL_VERSION } from "./versions.js";
@@ -19,6 +20,7 @@ const COMMANDS: Record<string, { help: string; run: (argv: readonly string[], io
   new: { help: NEW_HELP, run: newCommand },
   export: { help: EXPORT_HELP, run: exportCommand },
   pin: { help: PIN_HELP, run: pinCommand },
+  serve: { help: SERVE_HELP, run: serveCommand },
 };
 
 export const MAIN_HELP = `Usage: conebook COMMAND [options]
@@ -29,6 +31,7 @@ Commands:
   new TEMPLATE   a new document from a template (-o FILE, --set, --data)
   export FILE    a self-contained HTML report (-o report.html)
   pin FILE       re-pin data files after an intended change (prints both SHA-256 digests)
+  serve [FILE]   the workbench page: read, edit, run and save documents in a browser
 
 conebook COMMAND --help shows a command's options. conebook --version shows the version.
 Exit codes: 0 ok; 1 a check failed; 2 usage or input error.`;

@@ -9,7 +9,7 @@
  */
 import { convert, parseUnit } from "@conebook/aquifer";
 import { isReservedName, reservedNameReason, type CellOutput, type ConebookDocument, type Position, type TemplateParameter } from "@conebook/document";
-import type { RecordedControl } from "@conebook/kernel";
+import { recordedControlValues } from "@conebook/kernel";
 import { InputError, UsageError, place } from "./errors.js";
 
 /** One `--set` as typed. */
@@ -162,12 +162,7 @@ export function runOverrides(parameters: readonly TemplateParameter[], controls:
   return { ...fromParameters, ...controls };
 }
 
-/** The control values recorded in the document's outputs, with the default recorded beside each, by name. */
-export function recordedControlValues(doc: ConebookDocument): Record<string, RecordedControl> {
-  const out: Record<string, RecordedControl> = {};
-  for (const [name, c] of recordedControls(doc)) out[name] = { value: c.output.value, default: c.output.default };
-  return out;
-}
+export { recordedControlValues };
 
 const OVERRIDE_REFUSED = /control "([^"]+)": the override/;
 

@@ -118,13 +118,16 @@ function cellAttributes(cell: Exclude<Cell, { kind: "narrative" }>): [string, st
   return attrs;
 }
 
-/** The chart's source: kept while it still says what `spec` says, otherwise written from `spec`. */
+/**
+ * The chart's source: kept while it still says what `spec` says (unchanged, or edited as text together with its
+ * spec, as an editor does, so comments and layout survive), otherwise written from `spec`.
+ */
 function chartSource(cell: ChartCell): string {
   const o = cell.origin;
   const specEdited = o
     ? stableStringify((JSON.parse(JSON.parse(o.snapshot).body) as { spec: unknown }).spec) !== stableStringify(cell.spec)
     : !sourceMatchesSpec(cell);
-  if (!specEdited) return cell.source;
+  if (!specEdited || (o && sourceMatchesSpec(cell))) return cell.source;
   return cell.specFormat === "json" ? JSON.stringify(cell.spec, null, 2) : stringifyYaml(cell.spec, YAML_WRITE_OPTIONS).replace(/\n$/, "");
 }
 

@@ -10,5 +10,6 @@ import type { WasmMemory } from "./wasm-memory.js";
 
 /** A module loader for createKernel({ loadModule }) that fetches the wasm from `wasmLocation` and runs it on the kernel's memory. */
 export function loadBrowserModule(wasmLocation: string): (memory: WasmMemory) => Promise<QuickJSWASMModule> {
-  return (memory) => newQuickJSWASMModuleFromVariant(newVariant(RELEASE_SYNC as unknown as QuickJSSyncVariant, { wasmLocation, wasmMemory: memory }));
+  // `as never`: WasmMemory is a real WebAssembly.Memory, a type the ES library the kernel compiles against lacks.
+  return (memory) => newQuickJSWASMModuleFromVariant(newVariant(RELEASE_SYNC as unknown as QuickJSSyncVariant, { wasmLocation, wasmMemory: memory as never }));
 }

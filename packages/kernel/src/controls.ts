@@ -5,7 +5,7 @@
  * code is still the default recorded beside it (a changed default means the record belongs to older code, and
  * the new default wins, with a note); the default value.
  */
-import { isReservedName, reservedNameReason, type CellOutput } from "@conebook/document";
+import { isReservedName, reservedNameReason, type CellOutput, type ConebookDocument } from "@conebook/document";
 import { ArgumentError, finite, optional, recordArg, stringArg } from "./validators.js";
 
 type ControlOutput = Extract<CellOutput, { type: "control" }>;
@@ -20,6 +20,28 @@ export interface RecordedControl {
 export interface ControlRecord {
   cellId: string;
   output: ControlOutput;
+}
+
+/** The control values recorded in `doc`'s outputs (the first record of each name) with the default beside each. */
+export function recordedControlValues(doc: ConebookDocument): Record<string, RecordedControl> {
+  const out: Record<string, RecordedControl> = {};
+  for (const cell of doc.cells) {
+    for (const o of cell.outputs) {
+      if (o.type === "control" && !Object.hasOwn(out, o.name)) out[o.name] = { value: o.value, default: o.default };
+    }
+  }
+  return out;
+}
+
+/**
+ * What a rerun of `doc` as it stands gets, the same for `conebook run`/`verify`/`export` and the page: every
+ * numeric header parameter as an override under its own name, and the recorded control values (used by a
+ * control only while its default in the code is the one recorded beside it).
+ */
+export function recordedRunSettings(doc: ConebookDocument): { overrides: Record<string, number>; recordedControls: Record<string, RecordedControl> } {
+  const overrides: Record<string, number> = {};
+  for (const p of doc.header.parameters) if (typeof p.value === "number") overrides[p.name] = p.value;
+  return { overrides, recordedControls: recordedControlValues(doc) };
 }
 
 const NAME = /^[A-Za-z_][A-Za-z0-9_ .-]*$/;

@@ -26,6 +26,6 @@ export { AQUIFER_API, BRIDGE_API, CHART_API, arg, fn, type BridgeArgument, type 
 export { ArgumentError } from "./validators.js";
 export { stripTypes, CellSyntaxError, type StrippedCell } from "./strip-types.js";
 export { parseDataTable, DataCellError, type DataTable, type ReadFile } from "./data-cells.js";
-export { type ControlRecord, type RecordedControl } from "./controls.js";
+export { recordedControlValues, recordedRunSettings, type ControlRecord, type RecordedControl } from "./controls.js";
 export * from "./charts/index.js";
 export { DEFAULT_RTOL, checkDataPins, compareOutputs, numbersAgree, recordedOutputs, relativeDifference, type CompareOptions, type DifferenceKind, type OutputDifference, type PinCheck } from "./verify.js";

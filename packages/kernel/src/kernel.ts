@@ -109,7 +109,8 @@ async function defaultLoader(memory: WasmMemory): Promise<QuickJSWASMModule> {
     import("@jitl/quickjs-wasmfile-release-sync"),
   ]);
   // The package's types describe its CommonJS build; the ESM build has the variant as its default export.
-  return newQuickJSWASMModuleFromVariant(newVariant(variant.default as unknown as QuickJSSyncVariant, { wasmMemory: memory }));
+  // `as never`: WasmMemory is a real WebAssembly.Memory, a type the ES library the kernel compiles against lacks.
+  return newQuickJSWASMModuleFromVariant(newVariant(variant.default as unknown as QuickJSSyncVariant, { wasmMemory: memory as never }));
 }
 
 const PAGE_BYTES = 65536;

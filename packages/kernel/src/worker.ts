@@ -13,6 +13,7 @@
 import { DocumentError, formatDiagnostic, parseDocument, type Diagnostic } from "@conebook/document";
 import type { ReadFile } from "./data-cells.js";
 import type { Kernel, RunProgress, RunResult } from "./kernel.js";
+import type { RecordedControl } from "./controls.js";
 
 /** Run one document. */
 export interface DocumentRunRequest {
@@ -25,6 +26,8 @@ export interface DocumentRunRequest {
   file?: string;
   /** Values for `control(name, ...)` calls, by control name. */
   overrides?: Record<string, number>;
+  /** Control values recorded in the document, with the default recorded beside each (see RunOptions). */
+  recordedControls?: Record<string, RecordedControl>;
   /** Bytes of the data files the document pins, by their path relative to the document (forward slashes). */
   files?: Record<string, Uint8Array | ArrayBuffer>;
 }
@@ -73,6 +76,7 @@ export async function runDocumentText(kernel: Kernel, request: DocumentRunReques
   }
   const result = await kernel.runDocument(parsed.document, {
     overrides: request.overrides ?? {},
+    recordedControls: request.recordedControls ?? {},
     readFile: sentFileReader(request.files ?? {}),
     ...(onProgress ? { onProgress } : {}),
   });
