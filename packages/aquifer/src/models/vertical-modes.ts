@@ -1,0 +1,278 @@
+/**
+ * The Laplace-domain drawdown of a partially penetrating, finite-diameter well with well-bore storage and skin
+ * in an aquifer of thickness b, as a series over vertical modes. One engine serves the confined or leaky
+ * aquifer (Dougherty and Babu 1984; line-source limit Hantush 1961) and the water-table aquifer with
+ * instantaneous or gradual drainage (Neuman 1974; Moench 1997).
+ *
+ * Coordinates: zeta is the height above the aquifer base (0..b); the pumping screen spans zeta_a..zeta_b
+ * (length L), an observation screen zeta_1..zeta_2 (length L_o) or a piezometer sits at zeta_o.
+ * With p the Laplace variable (1/d) and the drawdown s(r, zeta, t), each vertical mode cos(eps_n zeta / b)
+ * meets no flow at the base and, at the top,
+ *   confined:     no flow, eps_n = n pi;
+ *   water table:  Kz ds/dzeta = -Sy p alpha / (alpha + p) s (Boulton-type gradual drainage with drainage
+ *                 constant alpha, 1/d; alpha -> infinity is Neuman's instantaneous drainage), so that
+ *                 eps_n tan eps_n = gamma,  gamma = Sy b p alpha / (Kz (alpha + p)),  n pi < eps_n < n pi + pi/2.
+ * In mode n the radial equation Kr (a'' + a'/r) = (Ss p + lambda / b + Kz eps_n^2 / b^2) a gives
+ *   a_n = A_n K0(q_n r),  q_n^2 = (S p + lambda) / T + kappa eps_n^2 / b^2,   kappa = Kz / Kr,
+ * with lambda the leakance K'/b' of an aquitard without storage (Hantush-Jacob leakage, 1/d; 0 for none).
+ * A uniform flux Q_a / L over the screen expands into the modes with coefficients
+ *   c_n = 4 [sin(eps_n zeta_b / b) - sin(eps_n zeta_a / b)] / (L (2 eps_n + sin 2 eps_n))    (1/m; c_0 = 1/b
+ *   in the confined case), and the flux condition at r = rw gives A_n = Q_a c_n / (2 pi Kr rw q_n K1(q_n rw)).
+ * Averaging over the observation interval (or taking the value at the piezometer) with
+ *   o_n = b [sin(eps_n zeta_2 / b) - sin(eps_n zeta_1 / b)] / (L_o eps_n)   or   o_n = cos(eps_n zeta_o / b),
+ *   s(r, p) = Q_a / (2 pi Kr) sum_n c_n o_n G_n(r),   G_n(r) = K0(q_n r) / (rw q_n K1(q_n rw))
+ * (G_n = K0(q_n r) for a line source, rw -> 0). In the pumped well the drawdown is the screen average of the
+ * aquifer drawdown at r = rw plus the skin loss Q_a Sk / (2 pi Kr L) of a thin skin (Agarwal et al. 1970):
+ *   s_w = Q_a Phi,   Phi = (b / (2 pi T)) [sum_n c_n o_n^screen G_n(rw) + Sk / L],
+ * and the well-bore balance Q / p = Q_a + pi rc^2 p s_w gives Q_a = (Q / p) / (1 + pi rc^2 p Phi).
+ * The uniform-flux screen with an averaged well drawdown is the approximation of Dougherty and Babu (1984)
+ * and Moench (1997); for a full screen and confined modes only n = 0 remains and the transform is that of
+ * Papadopulos and Cooper (1967) with skin; with water-table modes, full penetration and a line source it is
+ * Neuman's (1974) in the form of neuman-laplace.ts.
+ *
+ * Summation. Away from the pumped well G_n decays like exp(-q_n (r - rw)) and the series is summed until the
+ * bound of its tail, envelope(eps_n) G_n rho / (1 - rho) with rho the last ratio G_n / G_(n-1), is below
+ * SERIES_TOLERANCE of the sum. In the pumped well G_n(rw) decreases only like 1/n; there the terms after
+ * N = max(40, 8 m / k, 4 gamma / pi) (m^2 = (S p + lambda) / T, k = pi sqrt(kappa) / b; at most DIRECT_CAP)
+ * are taken from the confined modes at p = 0 with a first-order correction in m^2,
+ *   sum_{n > N} c_n o_n [g(k n rw) + m^2 dg/dy(k^2 n^2)],   g(x) = K0(x) / (x K1(x)),  y = q^2,
+ * precomputed once per kappa as suffix sums out to the index where k n rw = 40 (and at least 20000 terms);
+ * there the eigenvalues and coefficients of the water-table modes differ from the confined ones by
+ * O(gamma / n^2) and the neglected second order is O((m / (k n))^4). Accuracy: see docs/methods.md.
+ */
+import { besselK0, besselK0e, besselK1e } from "../special/index.js";
+import { firstRootGuess, neumanNextRoot, neumanRoot } from "./neuman-laplace.js";
+
+/** Relative truncation tolerance of the directly summed series. */
+export const SERIES_TOLERANCE = 1e-11;
+/** Most terms summed directly before the precomputed tail takes over (pumped well) or the sum stops. */
+export const DIRECT_CAP = 4000;
+/** Most terms of any series away from the pumped well. */
+const OBSERVATION_CAP = 200000;
+
+/** Vertical geometry in heights above the aquifer base, m. */
+export interface VerticalGeometry {
+  /** Saturated thickness b, m. */
+  readonly b: number;
+  /** Pumping screen from zetaA (lower) to zetaB (upper), m above the base. */
+  readonly zetaA: number;
+  readonly zetaB: number;
+  /** Observation: a piezometer at zeta or a screen from zeta1 (lower) to zeta2 (upper), m above the base. */
+  readonly observation: { readonly zeta: number } | { readonly zeta1: number; readonly zeta2: number };
+}
+
+/** The aquifer in the units of the library (T m2/d, S 1, kappa 1, lambda 1/d, Sy 1, alpha 1/d). */
+export interface ModeAquifer {
+  readonly T: number;
+  readonly S: number;
+  /** Kz/Kr. */
+  readonly kappa: number;
+  /** Leakance K'/b' of an aquitard without storage, 1/d (0: none). */
+  readonly lambda: number;
+  /** Specific yield; 0 selects the confined modes. */
+  readonly Sy: number;
+  /** Drainage constant, 1/d; Infinity for instantaneous drainage. */
+  readonly alpha: number;
+}
+
+/** The well: radius rw (m; 0 for a line source), casing radius rc (m) and skin Sk (1). */
+export interface ModeWell {
+  readonly rw: number;
+  readonly rc: number;
+  readonly skin: number;
+}
+
+/** Difference sin(e u) - sin(e v) as 2 cos(e (u + v) / 2) sin(e (u - v) / 2), accurate for small e. */
+function sinDifference(e: number, u: number, v: number): number {
+  return 2 * Math.cos(0.5 * e * (u + v)) * Math.sin(0.5 * e * (u - v));
+}
+
+/** c_n of the module comment for eigenvalue e (> 0), screen zetaA..zetaB, thickness b; 1/m. */
+function screenCoefficient(e: number, g: VerticalGeometry): number {
+  const L = g.zetaB - g.zetaA;
+  return (4 * sinDifference(e, g.zetaB / g.b, g.zetaA / g.b)) / (L * (2 * e + Math.sin(2 * e)));
+}
+
+/** o_n of the module comment for eigenvalue e (> 0): observation average or piezometer value; dimensionless. */
+function observationCoefficient(e: number, g: VerticalGeometry, screen: boolean): number {
+  const o = g.observation;
+  if (screen) return (g.b * sinDifference(e, g.zetaB / g.b, g.zetaA / g.b)) / ((g.zetaB - g.zetaA) * e);
+  if ("zeta" in o) return Math.cos((e * o.zeta) / g.b);
+  return (g.b * sinDifference(e, o.zeta2 / g.b, o.zeta1 / g.b)) / ((o.zeta2 - o.zeta1) * e);
+}
+
+/** Upper bound of |c_n o_n| for eigenvalue e >= pi (used in the tail bound); 1/m. */
+function coefficientEnvelope(e: number, g: VerticalGeometry, screen: boolean): number {
+  const L = g.zetaB - g.zetaA;
+  const cBound = 8 / (L * (2 * e - 1));
+  const o = g.observation;
+  const lo = screen ? L : "zeta" in o ? 0 : o.zeta2 - o.zeta1;
+  const oBound = lo > 0 ? Math.min(1, (2 * g.b) / (lo * e)) : 1;
+  return cBound * oBound;
+}
+
+/** K0(x) / (x K1(x)) for x > 0, with scaled Bessel functions. */
+function wellFaceRatio(x: number): number {
+  return besselK0e(x) / (x * besselK1e(x));
+}
+
+/** G_n(r) of the module comment for radial wavenumber q (1/m). */
+function radialFactor(q: number, r: number, rw: number): number {
+  if (rw === 0) return besselK0(q * r);
+  const x = q * rw;
+  if (r === rw) return wellFaceRatio(x);
+  return (besselK0e(q * r) * Math.exp(-q * (r - rw))) / (x * besselK1e(x));
+}
+
+/**
+ * Precomputed tail of the pumped-well series on confined modes at p = 0 for one kappa: suffix[N] is
+ * sum_{n > N} c_n o_n g(k n rw), suffixSlope[N] the same with dg/dy at y = k^2 n^2 (m^2), N = 0..DIRECT_CAP.
+ */
+interface PumpedTail {
+  readonly kappa: number;
+  readonly suffix: Float64Array;
+  readonly suffixSlope: Float64Array;
+  /** Bound of the neglected terms beyond the precomputed range, 1/m. */
+  readonly neglected: number;
+}
+
+/** d g / d y at y = q^2 with x = q rw: g'(x) x / (2 y), g'(x) = (K0^2 - K1^2) / (x K1^2) (all scaled). */
+function wellFaceSlope(q: number, rw: number): number {
+  const x = q * rw;
+  const k0 = besselK0e(x);
+  const k1 = besselK1e(x);
+  const gPrime = (k0 * k0 - k1 * k1) / (x * k1 * k1);
+  return (gPrime * x) / (2 * q * q);
+}
+
+function buildPumpedTail(kappa: number, g: VerticalGeometry, rw: number): PumpedTail {
+  const k = (Math.PI * Math.sqrt(kappa)) / g.b;
+  const last = Math.max(20000, Math.ceil(40 / (k * rw)), DIRECT_CAP + 1);
+  const suffix = new Float64Array(DIRECT_CAP + 1);
+  const suffixSlope = new Float64Array(DIRECT_CAP + 1);
+  let s0 = 0;
+  let s1 = 0;
+  for (let n = last; n >= 1; n--) {
+    const e = n * Math.PI;
+    const a = screenCoefficient(e, g) * observationCoefficient(e, g, true);
+    const q = k * n;
+    s0 += a * wellFaceRatio(q * rw);
+    s1 += a * wellFaceSlope(q, rw);
+    if (n - 1 <= DIRECT_CAP) {
+      suffix[n - 1] = s0;
+      suffixSlope[n - 1] = s1;
+    }
+  }
+  // Terms beyond `last`: |c_n o_n| <= envelope(n pi), which falls like 1/n^2, and g(x) < 1/x, so their sum is
+  // below envelope(last pi) last^2 / (k rw) sum_{n > last} 1/n^3 < envelope(last pi) / (2 k rw).
+  const neglected = coefficientEnvelope(last * Math.PI, g, true) / (2 * k * rw);
+  return { kappa, suffix, suffixSlope, neglected };
+}
+
+/** Evaluates the mode sums of one configuration; one instance per bound model (caches the pumped tail). */
+export class VerticalModeSeries {
+  private tail: PumpedTail | null = null;
+
+  constructor(readonly geometry: VerticalGeometry, readonly well: ModeWell) {}
+
+  /** True when pumping screen and observation span the full thickness (only mode 0 of a confined aquifer). */
+  get fullScreens(): boolean {
+    const g = this.geometry;
+    const o = g.observation;
+    return g.zetaA === 0 && g.zetaB === g.b && !("zeta" in o) && o.zeta1 === 0 && o.zeta2 === g.b;
+  }
+
+  /**
+   * sum_n c_n o_n G_n(r) (1/m) at real p > 0 (1/d): with `pumped` the screen average at the well face
+   * (r = rw), else the observation of the geometry at r (m).
+   */
+  modeSum(p: number, aq: ModeAquifer, r: number, pumped: boolean): number {
+    const g = this.geometry;
+    const { rw } = this.well;
+    const b = g.b;
+    const m2 = (aq.S * p + aq.lambda) / aq.T;
+    const kz = aq.kappa / (b * b);
+    const waterTable = aq.Sy > 0;
+    const gamma = waterTable
+      ? ((aq.Sy * b * b * p) / (aq.kappa * aq.T)) * (aq.alpha === Infinity ? 1 : aq.alpha / (aq.alpha + p))
+      : 0;
+    const confinedFull = !waterTable && (pumped ? g.zetaA === 0 && g.zetaB === b : this.fullScreens);
+    // Mode 0.
+    let sum: number;
+    let e = 0;
+    if (waterTable) {
+      e = neumanRoot(0, gamma, firstRootGuess(gamma));
+      const q = Math.sqrt(m2 + kz * e * e);
+      sum = screenCoefficient(e, g) * observationCoefficient(e, g, pumped) * radialFactor(q, r, rw);
+    } else {
+      sum = radialFactor(Math.sqrt(m2), r, rw) / b;
+    }
+    if (confinedFull) return sum;
+    const rEff = pumped ? rw : r;
+    if (pumped && rw > 0) return sum + this.pumpedModes(m2, kz, gamma, waterTable, e, aq.kappa);
+    // Away from the pumped well: direct sum with the geometric tail bound.
+    let previous = Number.NaN;
+    for (let n = 1; n <= OBSERVATION_CAP; n++) {
+      e = waterTable ? neumanNextRoot(n, gamma, e) : n * Math.PI;
+      const q = Math.sqrt(m2 + kz * e * e);
+      const G = radialFactor(q, rEff, rw);
+      sum += screenCoefficient(e, g) * observationCoefficient(e, g, false) * G;
+      if (G === 0) return sum;
+      if (n > 1) {
+        const rho = G / previous;
+        if (rho < 1 && (coefficientEnvelope(e, g, false) * G * rho) / (1 - rho) <= SERIES_TOLERANCE * Math.abs(sum)) return sum;
+      }
+      previous = G;
+    }
+    return sum;
+  }
+
+  /** Modes n >= 1 of the pumped-well screen average: direct to N, then the precomputed confined tail. */
+  private pumpedModes(m2: number, kz: number, gamma: number, waterTable: boolean, e0: number, kappa: number): number {
+    const g = this.geometry;
+    const { rw } = this.well;
+    const k = Math.PI * Math.sqrt(kz);
+    const direct = Math.min(
+      DIRECT_CAP,
+      Math.max(40, Math.ceil((8 * Math.sqrt(m2)) / k), waterTable ? Math.ceil((4 * gamma) / Math.PI) : 0),
+    );
+    let e = e0;
+    let sum = 0;
+    for (let n = 1; n <= direct; n++) {
+      e = waterTable ? neumanNextRoot(n, gamma, e) : n * Math.PI;
+      const q = Math.sqrt(m2 + kz * e * e);
+      sum += screenCoefficient(e, g) * observationCoefficient(e, g, true) * wellFaceRatio(q * rw);
+    }
+    if (this.tail === null || this.tail.kappa !== kappa) this.tail = buildPumpedTail(kappa, g, rw);
+    return sum + this.tail.suffix[direct]! + m2 * this.tail.suffixSlope[direct]!;
+  }
+
+  /** Bound of the pumped-well terms neglected beyond the precomputed tail for this kappa, 1/m. */
+  neglectedTail(kappa: number): number {
+    if (this.tail === null || this.tail.kappa !== kappa) this.tail = buildPumpedTail(kappa, this.geometry, this.well.rw);
+    return this.tail.neglected;
+  }
+}
+
+/**
+ * Laplace transform of the drawdown (m d) at real p > 0 (1/d) for discharge Q (m3/d): in the pumped well when
+ * `pumped`, else at distance r (m) for the observation of the series' geometry; see the module comment.
+ */
+export function modeDrawdownTransform(
+  series: VerticalModeSeries,
+  aq: ModeAquifer,
+  Q: number,
+  r: number,
+  pumped: boolean,
+  p: number,
+): number {
+  const { rc, skin, rw } = series.well;
+  const g = series.geometry;
+  const L = g.zetaB - g.zetaA;
+  const scale = g.b / (2 * Math.PI * aq.T);
+  const needPhi = pumped || rc > 0;
+  const phi = needPhi ? scale * (series.modeSum(p, aq, rw, true) + skin / L) : 0;
+  const qa = Q / p / (1 + Math.PI * rc * rc * p * phi);
+  if (pumped) return qa * phi;
+  return qa * scale * series.modeSum(p, aq, r, false);
+}
