@@ -33,12 +33,13 @@
  * Summation. Away from the pumped well G_n decays like exp(-q_n (r - rw)) and the series is summed until the
  * bound of its tail, envelope(eps_n) G_n rho / (1 - rho) with rho the last ratio G_n / G_(n-1), is below
  * SERIES_TOLERANCE of the sum. In the pumped well G_n(rw) decreases only like 1/n; there the terms after
- * N = max(40, 8 m / k, 4 gamma / pi) (m^2 = (S p + lambda) / T, k = pi sqrt(kappa) / b; at most DIRECT_CAP)
+ * N = max(40, 8 m / k, 16 gamma / pi) (m^2 = (S p + lambda) / T, k = pi sqrt(kappa) / b; at most DIRECT_CAP)
  * are taken from the confined modes at p = 0 with a first-order correction in m^2,
- *   sum_{n > N} c_n o_n [g(k n rw) + m^2 dg/dy(k^2 n^2)],   g(x) = K0(x) / (x K1(x)),  y = q^2,
+ *   sum_{n > N} c_n o_n [g(k n rw) + (m^2 + 2 kappa gamma / b^2) dg/dy(k^2 n^2)],   g(x) = K0(x) / (x K1(x)),  y = q^2,
  * precomputed once per kappa as suffix sums out to the index where k n rw = 40 (and at least 20000 terms);
- * there the eigenvalues and coefficients of the water-table modes differ from the confined ones by
- * O(gamma / n^2) and the neglected second order is O((m / (k n))^4). Accuracy: see docs/methods.md.
+ * there the water-table eigenvalues are n pi + gamma / (n pi) + ..., which shifts q^2 by 2 kappa gamma / b^2
+ * (taken into the first-order term) and changes the coefficients by O(gamma / n^2); the neglected second
+ * order is O((m / (k n))^4). Accuracy: see docs/methods.md.
  */
 import { besselK0, besselK0e, besselK1e } from "../special/index.js";
 import { firstRootGuess, neumanNextRoot, neumanRoot } from "./neuman-laplace.js";
@@ -101,6 +102,22 @@ function observationCoefficient(e: number, g: VerticalGeometry, screen: boolean)
   return (g.b * sinDifference(e, o.zeta2 / g.b, o.zeta1 / g.b)) / ((o.zeta2 - o.zeta1) * e);
 }
 
+/**
+ * c_n o_n (1/m) of a water-table mode n >= 1 (e >= pi, e tan e = gamma), with sin 2e = 2 gamma e / (e^2 +
+ * gamma^2) from tan e = gamma / e and the sine differences taken directly (no cancellation for e >= pi):
+ * two or four sines per term instead of six trigonometric calls.
+ */
+function waterTableCoefficient(e: number, gamma: number, g: VerticalGeometry, screen: boolean): number {
+  const b = g.b;
+  const L = g.zetaB - g.zetaA;
+  const d = Math.sin((e * g.zetaB) / b) - Math.sin((e * g.zetaA) / b);
+  const c = (4 * d) / (L * (2 * e + (2 * gamma * e) / (e * e + gamma * gamma)));
+  if (screen) return (c * b * d) / (L * e);
+  const o = g.observation;
+  if ("zeta" in o) return c * Math.cos((e * o.zeta) / b);
+  return (c * b * (Math.sin((e * o.zeta2) / b) - Math.sin((e * o.zeta1) / b))) / ((o.zeta2 - o.zeta1) * e);
+}
+
 /** Upper bound of |c_n o_n| for eigenvalue e >= pi (used in the tail bound); 1/m. */
 function coefficientEnvelope(e: number, g: VerticalGeometry, screen: boolean): number {
   const L = g.zetaB - g.zetaA;
@@ -132,6 +149,8 @@ interface PumpedTail {
   readonly kappa: number;
   readonly suffix: Float64Array;
   readonly suffixSlope: Float64Array;
+  /** Same with (d(c_n o_n)/d eps at eps = n pi) / (n pi) in place of c_n o_n: the first order in gamma. */
+  readonly suffixDelta: Float64Array;
   /** Bound of the neglected terms beyond the precomputed range, 1/m. */
   readonly neglected: number;
 }
@@ -150,30 +169,63 @@ function buildPumpedTail(kappa: number, g: VerticalGeometry, rw: number): Pumped
   const last = Math.max(20000, Math.ceil(40 / (k * rw)), DIRECT_CAP + 1);
   const suffix = new Float64Array(DIRECT_CAP + 1);
   const suffixSlope = new Float64Array(DIRECT_CAP + 1);
+  const suffixDelta = new Float64Array(DIRECT_CAP + 1);
+  const L = g.zetaB - g.zetaA;
+  const ua = g.zetaA / g.b;
+  const ub = g.zetaB / g.b;
   let s0 = 0;
   let s1 = 0;
+  let s2 = 0;
   for (let n = last; n >= 1; n--) {
     const e = n * Math.PI;
-    const a = screenCoefficient(e, g) * observationCoefficient(e, g, true);
+    // c_n o_n = 4 b D^2 / (L^2 e (2 e + sin 2e)) with D = sin(e u_b) - sin(e u_a); at e = n pi its derivative
+    // is (4 b / L^2) (D D' / e^2 - 3 D^2 / (2 e^3)), D' = u_b cos(e u_b) - u_a cos(e u_a).
+    const D = Math.sin(e * ub) - Math.sin(e * ua);
+    const dD = ub * Math.cos(e * ub) - ua * Math.cos(e * ua);
+    const a = (2 * g.b * D * D) / (L * L * e * e);
+    const da = ((4 * g.b) / (L * L)) * ((D * dD) / (e * e) - (1.5 * D * D) / (e * e * e));
     const q = k * n;
-    s0 += a * wellFaceRatio(q * rw);
+    const ratio = wellFaceRatio(q * rw);
+    s0 += a * ratio;
     s1 += a * wellFaceSlope(q, rw);
+    s2 += (da / e) * ratio;
     if (n - 1 <= DIRECT_CAP) {
       suffix[n - 1] = s0;
       suffixSlope[n - 1] = s1;
+      suffixDelta[n - 1] = s2;
     }
   }
   // Terms beyond `last`: |c_n o_n| <= envelope(n pi), which falls like 1/n^2, and g(x) < 1/x, so their sum is
   // below envelope(last pi) last^2 / (k rw) sum_{n > last} 1/n^3 < envelope(last pi) / (2 k rw).
   const neglected = coefficientEnvelope(last * Math.PI, g, true) / (2 * k * rw);
-  return { kappa, suffix, suffixSlope, neglected };
+  return { kappa, suffix, suffixSlope, suffixDelta, neglected };
 }
 
 /** Evaluates the mode sums of one configuration; one instance per bound model (caches the pumped tail). */
 export class VerticalModeSeries {
   private tail: PumpedTail | null = null;
+  /** c_n o_n of the confined modes (eps_n = n pi), index n, grown on demand: observation and screen average. */
+  private confinedObservation = new Float64Array(0);
+  private confinedScreen = new Float64Array(0);
 
   constructor(readonly geometry: VerticalGeometry, readonly well: ModeWell) {}
+
+  /** c_n o_n of confined mode n >= 1 (1/m), from the cache. */
+  private confinedCoefficient(n: number, screen: boolean): number {
+    let table = screen ? this.confinedScreen : this.confinedObservation;
+    if (n >= table.length) {
+      const grown = new Float64Array(Math.max(64, 2 * n + 1));
+      grown.set(table);
+      for (let j = Math.max(1, table.length); j < grown.length; j++) {
+        const e = j * Math.PI;
+        grown[j] = screenCoefficient(e, this.geometry) * observationCoefficient(e, this.geometry, screen);
+      }
+      table = grown;
+      if (screen) this.confinedScreen = grown;
+      else this.confinedObservation = grown;
+    }
+    return table[n]!;
+  }
 
   /** True when pumping screen and observation span the full thickness (only mode 0 of a confined aquifer). */
   get fullScreens(): boolean {
@@ -216,7 +268,8 @@ export class VerticalModeSeries {
       e = waterTable ? neumanNextRoot(n, gamma, e) : n * Math.PI;
       const q = Math.sqrt(m2 + kz * e * e);
       const G = radialFactor(q, rEff, rw);
-      sum += screenCoefficient(e, g) * observationCoefficient(e, g, false) * G;
+      const a = waterTable ? waterTableCoefficient(e, gamma, g, false) : this.confinedCoefficient(n, false);
+      sum += a * G;
       if (G === 0) return sum;
       if (n > 1) {
         const rho = G / previous;
@@ -234,17 +287,23 @@ export class VerticalModeSeries {
     const k = Math.PI * Math.sqrt(kz);
     const direct = Math.min(
       DIRECT_CAP,
-      Math.max(40, Math.ceil((8 * Math.sqrt(m2)) / k), waterTable ? Math.ceil((4 * gamma) / Math.PI) : 0),
+      Math.max(40, Math.ceil((8 * Math.sqrt(m2)) / k), waterTable ? Math.ceil((16 * gamma) / Math.PI) : 0),
     );
     let e = e0;
     let sum = 0;
     for (let n = 1; n <= direct; n++) {
       e = waterTable ? neumanNextRoot(n, gamma, e) : n * Math.PI;
       const q = Math.sqrt(m2 + kz * e * e);
-      sum += screenCoefficient(e, g) * observationCoefficient(e, g, true) * wellFaceRatio(q * rw);
+      const a = waterTable ? waterTableCoefficient(e, gamma, g, true) : this.confinedCoefficient(n, true);
+      sum += a * wellFaceRatio(q * rw);
     }
     if (this.tail === null || this.tail.kappa !== kappa) this.tail = buildPumpedTail(kappa, g, rw);
-    return sum + this.tail.suffix[direct]! + m2 * this.tail.suffixSlope[direct]!;
+    // Water-table modes: eps_n = n pi + delta_n with eps_n delta_n -> gamma, so kappa eps_n^2 / b^2 exceeds the
+    // confined value by 2 kappa gamma / b^2 (to O(1/n^2)): a shift of q^2 taken with the first-order term.
+    // The coefficients change to first order by delta_n d(c_n o_n)/d eps with delta_n ~ gamma / (n pi).
+    if (!waterTable) return sum + this.tail.suffix[direct]! + m2 * this.tail.suffixSlope[direct]!;
+    const shift = m2 + 2 * kz * gamma;
+    return sum + this.tail.suffix[direct]! + shift * this.tail.suffixSlope[direct]! + gamma * this.tail.suffixDelta[direct]!;
   }
 
   /** Bound of the pumped-well terms neglected beyond the precomputed tail for this kappa, 1/m. */
