@@ -76,3 +76,33 @@ export {
   type HantushStorageTypeCurve,
   type HantushStorageTypeCurveFamily,
 } from "./hantush-aquitard-storage.js";
+export {
+  DIRECT_CAP,
+  SERIES_TOLERANCE,
+  VerticalModeSeries,
+  modeDrawdownTransform,
+  type ModeAquifer,
+  type ModeWell,
+  type VerticalGeometry,
+} from "./vertical-modes.js";
+export {
+  drainageConstantParameter,
+  screenAnisotropyParameter,
+  skinParameter,
+  type FiniteWell,
+  type ScreenedWellGeometry,
+} from "./screened-well.js";
+export { doughertyBabuModel, type DoughertyBabuGeometry, type DoughertyBabuModel } from "./dougherty-babu.js";
+export {
+  moenchWaterTableModel,
+  neumanPartialPenetrationModel,
+  type MoenchGeometry,
+  type NeumanPartialGeometry,
+  type WaterTableModel,
+} from "./moench-water-table.js";
+export {
+  dupuitThiemModel,
+  dupuitThiemTwoWells,
+  hydraulicConductivityParameter,
+  type DupuitThiemModel,
+} from "./dupuit-thiem.js";
