@@ -106,3 +106,11 @@ export {
   hydraulicConductivityParameter,
   type DupuitThiemModel,
 } from "./dupuit-thiem.js";
+export {
+  hantushJacobMatchPoint,
+  neumanMatchPoint,
+  type HantushJacobMatchInput,
+  type HantushJacobMatchResult,
+  type NeumanMatchInput,
+  type NeumanMatchResult,
+} from "./type-curve-match-points.js";
