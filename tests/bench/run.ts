@@ -6,11 +6,13 @@ import { machineLine, printTable } from "./harness.js";
 import { cliBenchmarks } from "./sections/cli.js";
 import { kernelBenchmarks } from "./sections/kernel.js";
 import { laplaceModelBenchmarks } from "./sections/laplace-models.js";
+import { newMethodBenchmarks } from "./sections/new-methods.js";
 import { wellFunctionsAndFit } from "./sections/well-functions-and-fit.js";
 
 console.log("# Conebook benchmarks");
 console.log(machineLine());
 printTable("Well functions and fitting (aquifer)", wellFunctionsAndFit());
 printTable("Laplace-domain models (aquifer)", laplaceModelBenchmarks());
+printTable("Screened wells, slug and step tests (aquifer)", newMethodBenchmarks());
 printTable("Sandbox, bridge and documents (kernel)", await kernelBenchmarks());
 printTable("Command line (cli)", cliBenchmarks());

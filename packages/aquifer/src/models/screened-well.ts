@@ -136,7 +136,8 @@ const SAME_RADIUS = 1e-9;
 
 /**
  * Builds the DrawdownModel for a vertical-mode series: drawdown in m at times t (d) by Stehfest inversion
- * (N weights) of the transform of vertical-modes.ts; r within 1e-9 of rw (rw > 0) is the pumped well.
+ * (N weights) of the transform of vertical-modes.ts, with one number of directly summed pumped-well terms
+ * per time (that of the largest Laplace variable); r within 1e-9 of rw (rw > 0) is the pumped well.
  */
 export function seriesModel<Extra extends object>(
   descriptor: ModelDescriptor,
@@ -181,9 +182,10 @@ export function seriesModel<Extra extends object>(
           continue;
         }
         const a = Math.LN2 / ti;
+        const direct = s.directTerms(weights.length * a, aquifer);
         let sum = 0;
         for (let k = 1; k <= weights.length; k++) {
-          sum += weights[k - 1]! * modeDrawdownTransform(s, aquifer, geometry.Q, pumped ? well.rw : r, pumped, k * a);
+          sum += weights[k - 1]! * modeDrawdownTransform(s, aquifer, geometry.Q, pumped ? well.rw : r, pumped, k * a, direct);
         }
         result[i] = a * sum;
       }

@@ -36,6 +36,8 @@
  * N = max(40, 8 m / k, 16 gamma / pi) (m^2 = (S p + lambda) / T, k = pi sqrt(kappa) / b; at most DIRECT_CAP)
  * are taken from the confined modes at p = 0 with a first-order correction in m^2,
  *   sum_{n > N} c_n o_n [g(k n rw) + (m^2 + 2 kappa gamma / b^2) dg/dy(k^2 n^2)],   g(x) = K0(x) / (x K1(x)),  y = q^2,
+ * (an inversion uses the N of its largest p for all of its p, so that the small error of the tail changes
+ * smoothly with p and is not amplified by the alternating Stehfest weights), with the tail
  * precomputed once per kappa as suffix sums out to the index where k n rw = 40 (and at least 20000 terms);
  * there the water-table eigenvalues are n pi + gamma / (n pi) + ..., which shifts q^2 by 2 kappa gamma / b^2
  * (taken into the first-order term) and changes the coefficients by O(gamma / n^2); the neglected second
@@ -238,7 +240,7 @@ export class VerticalModeSeries {
    * sum_n c_n o_n G_n(r) (1/m) at real p > 0 (1/d): with `pumped` the screen average at the well face
    * (r = rw), else the observation of the geometry at r (m).
    */
-  modeSum(p: number, aq: ModeAquifer, r: number, pumped: boolean): number {
+  modeSum(p: number, aq: ModeAquifer, r: number, pumped: boolean, direct?: number): number {
     const g = this.geometry;
     const { rw } = this.well;
     const b = g.b;
@@ -261,7 +263,7 @@ export class VerticalModeSeries {
     }
     if (confinedFull) return sum;
     const rEff = pumped ? rw : r;
-    if (pumped && rw > 0) return sum + this.pumpedModes(m2, kz, gamma, waterTable, e, aq.kappa);
+    if (pumped && rw > 0) return sum + this.pumpedModes(m2, kz, gamma, waterTable, e, aq.kappa, direct ?? this.directTerms(p, aq));
     // Away from the pumped well: direct sum with the geometric tail bound.
     let previous = Number.NaN;
     for (let n = 1; n <= OBSERVATION_CAP; n++) {
@@ -280,15 +282,25 @@ export class VerticalModeSeries {
     return sum;
   }
 
-  /** Modes n >= 1 of the pumped-well screen average: direct to N, then the precomputed confined tail. */
-  private pumpedModes(m2: number, kz: number, gamma: number, waterTable: boolean, e0: number, kappa: number): number {
+  /**
+   * Terms summed directly in the pumped-well series at Laplace variable p (1/d): N of the module comment.
+   * An inversion should take the N of its largest p for all its p: the tail approximation then changes
+   * smoothly with p, whereas a jump in N between neighbouring p is a jump of its (tiny) error, which
+   * Stehfest's alternating weights would amplify by about 1e5.
+   */
+  directTerms(p: number, aq: ModeAquifer): number {
+    const b = this.geometry.b;
+    const m = Math.sqrt((aq.S * p + aq.lambda) / aq.T);
+    const k = (Math.PI * Math.sqrt(aq.kappa)) / b;
+    const gamma =
+      aq.Sy > 0 ? ((aq.Sy * b * b * p) / (aq.kappa * aq.T)) * (aq.alpha === Infinity ? 1 : aq.alpha / (aq.alpha + p)) : 0;
+    return Math.min(DIRECT_CAP, Math.max(40, Math.ceil((8 * m) / k), Math.ceil((16 * gamma) / Math.PI)));
+  }
+
+  /** Modes n >= 1 of the pumped-well screen average: `direct` terms, then the precomputed confined tail. */
+  private pumpedModes(m2: number, kz: number, gamma: number, waterTable: boolean, e0: number, kappa: number, direct: number): number {
     const g = this.geometry;
     const { rw } = this.well;
-    const k = Math.PI * Math.sqrt(kz);
-    const direct = Math.min(
-      DIRECT_CAP,
-      Math.max(40, Math.ceil((8 * Math.sqrt(m2)) / k), waterTable ? Math.ceil((16 * gamma) / Math.PI) : 0),
-    );
     let e = e0;
     let sum = 0;
     for (let n = 1; n <= direct; n++) {
@@ -316,6 +328,7 @@ export class VerticalModeSeries {
 /**
  * Laplace transform of the drawdown (m d) at real p > 0 (1/d) for discharge Q (m3/d): in the pumped well when
  * `pumped`, else at distance r (m) for the observation of the series' geometry; see the module comment.
+ * `direct` fixes the number of directly summed pumped-well terms (see VerticalModeSeries.directTerms).
  */
 export function modeDrawdownTransform(
   series: VerticalModeSeries,
@@ -324,13 +337,14 @@ export function modeDrawdownTransform(
   r: number,
   pumped: boolean,
   p: number,
+  direct?: number,
 ): number {
   const { rc, skin, rw } = series.well;
   const g = series.geometry;
   const L = g.zetaB - g.zetaA;
   const scale = g.b / (2 * Math.PI * aq.T);
   const needPhi = pumped || rc > 0;
-  const phi = needPhi ? scale * (series.modeSum(p, aq, rw, true) + skin / L) : 0;
+  const phi = needPhi ? scale * (series.modeSum(p, aq, rw, true, direct) + skin / L) : 0;
   const qa = Q / p / (1 + Math.PI * rc * rc * p * phi);
   if (pumped) return qa * phi;
   return qa * scale * series.modeSum(p, aq, r, false);

@@ -115,10 +115,11 @@ export function kgsSlugModel(geometry: KgsGeometry): KgsModel {
           continue;
         }
         const a = Math.LN2 / ti;
+        const direct = series.directTerms(weights.length * a, aquifer);
         let sum = 0;
         for (let k = 1; k <= weights.length; k++) {
           const pk = k * a;
-          const phi = scale * (series.modeSum(pk, aquifer, geometry.rw, true) + skin / L);
+          const phi = scale * (series.modeSum(pk, aquifer, geometry.rw, true, direct) + skin / L);
           sum += weights[k - 1]! * ((storage * phi) / (1 + storage * pk * phi));
         }
         result[i] = a * sum;
