@@ -33,15 +33,16 @@
  * Summation. Away from the pumped well G_n decays like exp(-q_n (r - rw)) and the series is summed until the
  * bound of its tail, envelope(eps_n) G_n rho / (1 - rho) with rho the last ratio G_n / G_(n-1), is below
  * SERIES_TOLERANCE of the sum. In the pumped well G_n(rw) decreases only like 1/n; there the terms after
- * N = max(40, 8 m / k, 16 gamma / pi) (m^2 = (S p + lambda) / T, k = pi sqrt(kappa) / b; at most DIRECT_CAP)
- * are taken from the confined modes at p = 0 with a first-order correction in m^2,
- *   sum_{n > N} c_n o_n [g(k n rw) + (m^2 + 2 kappa gamma / b^2) dg/dy(k^2 n^2)],   g(x) = K0(x) / (x K1(x)),  y = q^2,
+ * N = max(40, 3 m / k, 16 gamma / pi) (m^2 = (S p + lambda) / T, k = pi sqrt(kappa) / b; at most DIRECT_CAP)
+ * are taken from the confined modes at p = 0 with first- and second-order corrections in m^2,
+ *   sum_{n > N} c_n o_n [g(k n rw) + d dg/dy(k^2 n^2) + (d^2 / 2) d2g/dy2(k^2 n^2)],  d = m^2 + 2 kappa gamma / b^2,
+ *   g(x) = K0(x) / (x K1(x)),  y = q^2,
  * (an inversion uses the N of its largest p for all of its p, so that the small error of the tail changes
  * smoothly with p and is not amplified by the alternating Stehfest weights), with the tail
  * precomputed once per kappa as suffix sums out to the index where k n rw = 40 (and at least 20000 terms);
  * there the water-table eigenvalues are n pi + gamma / (n pi) + ..., which shifts q^2 by 2 kappa gamma / b^2
  * (taken into the first-order term) and changes the coefficients by O(gamma / n^2); the neglected second
- * order is O((m / (k n))^4). Accuracy: see docs/methods.md.
+ * order is O((m / (k n))^6). Accuracy: see docs/methods.md.
  */
 import { besselK0, besselK0e, besselK1e } from "../special/index.js";
 import { firstRootGuess, neumanNextRoot, neumanRoot } from "./neuman-laplace.js";
@@ -151,19 +152,28 @@ interface PumpedTail {
   readonly kappa: number;
   readonly suffix: Float64Array;
   readonly suffixSlope: Float64Array;
+  /** Same with d2g/dy2 / 2 (m^4): the second order in m^2. */
+  readonly suffixCurvature: Float64Array;
   /** Same with (d(c_n o_n)/d eps at eps = n pi) / (n pi) in place of c_n o_n: the first order in gamma. */
   readonly suffixDelta: Float64Array;
   /** Bound of the neglected terms beyond the precomputed range, 1/m. */
   readonly neglected: number;
 }
 
-/** d g / d y at y = q^2 with x = q rw: g'(x) x / (2 y), g'(x) = (K0^2 - K1^2) / (x K1^2) (all scaled). */
-function wellFaceSlope(q: number, rw: number): number {
+/**
+ * First and second derivatives of g in y = q^2 at x = q rw, written to out[0], out[1]: with R = K0/K1,
+ * g' = (R^2 - 1) / x, R' = R^2 + R / x - 1, g'' = 2 R R' / x - (R^2 - 1) / x^2, and
+ * dg/dy = g' x / (2 y), d2g/dy2 = (g'' x^2 - g' x) / (4 y^2).
+ */
+function wellFaceSlopes(q: number, rw: number, out: Float64Array): void {
   const x = q * rw;
-  const k0 = besselK0e(x);
-  const k1 = besselK1e(x);
-  const gPrime = (k0 * k0 - k1 * k1) / (x * k1 * k1);
-  return (gPrime * x) / (2 * q * q);
+  const R = besselK0e(x) / besselK1e(x);
+  const g1 = (R * R - 1) / x;
+  const dR = R * R + R / x - 1;
+  const g2 = (2 * R * dR) / x - (R * R - 1) / (x * x);
+  const y = q * q;
+  out[0] = (g1 * x) / (2 * y);
+  out[1] = (g2 * x * x - g1 * x) / (4 * y * y);
 }
 
 function buildPumpedTail(kappa: number, g: VerticalGeometry, rw: number): PumpedTail {
@@ -172,6 +182,9 @@ function buildPumpedTail(kappa: number, g: VerticalGeometry, rw: number): Pumped
   const suffix = new Float64Array(DIRECT_CAP + 1);
   const suffixSlope = new Float64Array(DIRECT_CAP + 1);
   const suffixDelta = new Float64Array(DIRECT_CAP + 1);
+  const suffixCurvature = new Float64Array(DIRECT_CAP + 1);
+  const slopes = new Float64Array(2);
+  let s3 = 0;
   const L = g.zetaB - g.zetaA;
   const ua = g.zetaA / g.b;
   const ub = g.zetaB / g.b;
@@ -189,18 +202,21 @@ function buildPumpedTail(kappa: number, g: VerticalGeometry, rw: number): Pumped
     const q = k * n;
     const ratio = wellFaceRatio(q * rw);
     s0 += a * ratio;
-    s1 += a * wellFaceSlope(q, rw);
+    wellFaceSlopes(q, rw, slopes);
+    s1 += a * slopes[0]!;
+    s3 += 0.5 * a * slopes[1]!;
     s2 += (da / e) * ratio;
     if (n - 1 <= DIRECT_CAP) {
       suffix[n - 1] = s0;
       suffixSlope[n - 1] = s1;
       suffixDelta[n - 1] = s2;
+      suffixCurvature[n - 1] = s3;
     }
   }
   // Terms beyond `last`: |c_n o_n| <= envelope(n pi), which falls like 1/n^2, and g(x) < 1/x, so their sum is
   // below envelope(last pi) last^2 / (k rw) sum_{n > last} 1/n^3 < envelope(last pi) / (2 k rw).
   const neglected = coefficientEnvelope(last * Math.PI, g, true) / (2 * k * rw);
-  return { kappa, suffix, suffixSlope, suffixDelta, neglected };
+  return { kappa, suffix, suffixSlope, suffixCurvature, suffixDelta, neglected };
 }
 
 /** Evaluates the mode sums of one configuration; one instance per bound model (caches the pumped tail). */
@@ -294,7 +310,7 @@ export class VerticalModeSeries {
     const k = (Math.PI * Math.sqrt(aq.kappa)) / b;
     const gamma =
       aq.Sy > 0 ? ((aq.Sy * b * b * p) / (aq.kappa * aq.T)) * (aq.alpha === Infinity ? 1 : aq.alpha / (aq.alpha + p)) : 0;
-    return Math.min(DIRECT_CAP, Math.max(40, Math.ceil((8 * m) / k), Math.ceil((16 * gamma) / Math.PI)));
+    return Math.min(DIRECT_CAP, Math.max(40, Math.ceil((3 * m) / k), Math.ceil((16 * gamma) / Math.PI)));
   }
 
   /** Modes n >= 1 of the pumped-well screen average: `direct` terms, then the precomputed confined tail. */
@@ -313,9 +329,13 @@ export class VerticalModeSeries {
     // Water-table modes: eps_n = n pi + delta_n with eps_n delta_n -> gamma, so kappa eps_n^2 / b^2 exceeds the
     // confined value by 2 kappa gamma / b^2 (to O(1/n^2)): a shift of q^2 taken with the first-order term.
     // The coefficients change to first order by delta_n d(c_n o_n)/d eps with delta_n ~ gamma / (n pi).
-    if (!waterTable) return sum + this.tail.suffix[direct]! + m2 * this.tail.suffixSlope[direct]!;
+    const tail = this.tail;
+    if (!waterTable) return sum + tail.suffix[direct]! + m2 * tail.suffixSlope[direct]! + m2 * m2 * tail.suffixCurvature[direct]!;
     const shift = m2 + 2 * kz * gamma;
-    return sum + this.tail.suffix[direct]! + shift * this.tail.suffixSlope[direct]! + gamma * this.tail.suffixDelta[direct]!;
+    return (
+      sum + tail.suffix[direct]! + shift * tail.suffixSlope[direct]! + shift * shift * tail.suffixCurvature[direct]! +
+      gamma * tail.suffixDelta[direct]!
+    );
   }
 
   /** Bound of the pumped-well terms neglected beyond the precomputed tail for this kappa, 1/m. */

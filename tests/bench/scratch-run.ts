@@ -1,3 +1,0 @@
-import { printTable } from "./harness.js";
-import { newMethodBenchmarks } from "./sections/new-methods.js";
-printTable("new", newMethodBenchmarks());
