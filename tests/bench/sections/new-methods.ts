@@ -111,7 +111,7 @@ export function newMethodBenchmarks(): Measurement[] {
   const out: Measurement[] = [];
   list.forEach((c, i) => {
     const t = (c.peerCase.t as number[]) ?? Array.from(T_POINTS);
-    let values = new Float64Array(0);
+    let values: Float64Array = new Float64Array(0);
     const ms = bestOf(5, () => c.model.drawdown(c.parameters, { r: c.r, Q: c.Q }, t), (v) => {
       values = v;
       if (!v.every(Number.isFinite)) throw new Error(`${c.label}: drawdowns are not all finite`);
