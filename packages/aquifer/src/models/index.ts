@@ -114,3 +114,11 @@ export {
   type NeumanMatchInput,
   type NeumanMatchResult,
 } from "./type-curve-match-points.js";
+export { blockStorageTerm, type MatrixBlocks } from "./vertical-modes.js";
+export {
+  blockRateParameter,
+  blockStorativityParameter,
+  fractureSkinParameter,
+  moenchDoublePorosityModel,
+  type DoublePorosityGeometry,
+} from "./moench-double-porosity.js";

@@ -77,6 +77,41 @@ export interface ModeAquifer {
   readonly Sy: number;
   /** Drainage constant, 1/d; Infinity for instantaneous drainage. */
   readonly alpha: number;
+  /** Matrix blocks of a double-porosity aquifer (none when omitted); see blockStorageTerm. */
+  readonly blocks?: MatrixBlocks;
+}
+
+/** Matrix blocks feeding the fractures (Moench 1984): storativity, diffusion rate, fracture skin and shape. */
+export interface MatrixBlocks {
+  /** Storativity of the blocks over the aquifer thickness, Sm (1). */
+  readonly Sm: number;
+  /** Block diffusion rate Km / (Ssm a^2), 1/d (a the half-thickness of a slab or the radius of a sphere). */
+  readonly rate: number;
+  /** Fracture skin sf = Km bs / (Ks a) (1, >= 0). */
+  readonly skin: number;
+  readonly shape: "slab" | "sphere";
+}
+
+/**
+ * Laplace-domain storage term of the matrix blocks, Sm p F(p) (1/d), added to S p: with eta = sqrt(p / rate),
+ *   slab:    F = tanh(eta) / (eta (1 + sf eta tanh eta)),
+ *   sphere:  F = 3 (eta coth eta - 1) / (eta^2 (1 + sf (eta coth eta - 1))),
+ * from transient diffusion into blocks whose faces see the fracture head through a thin skin (Moench 1984,
+ * WRR 20(7), 831-846; re-derived: block head A cosh(omega x) or A sinh(omega x)/x, flux balance at the face).
+ * F -> 1 as p -> 0 (blocks in equilibrium: total storativity S + Sm); F -> 0 as p -> infinity.
+ */
+export function blockStorageTerm(p: number, blocks: MatrixBlocks): number {
+  const eta = Math.sqrt(p / blocks.rate);
+  let F: number;
+  if (blocks.shape === "slab") {
+    const th = Math.tanh(eta);
+    F = eta < 1e-4 ? 1 - (eta * eta) / 3 : th / (eta * (1 + blocks.skin * eta * th));
+  } else {
+    // eta coth eta - 1 = eta^2 / 3 - eta^4 / 45 + ... for small eta.
+    const g = eta < 1e-3 ? (eta * eta) / 3 - (eta * eta * eta * eta) / 45 : eta / Math.tanh(eta) - 1;
+    F = (3 * g) / (eta * eta * (1 + blocks.skin * g));
+  }
+  return blocks.Sm * p * F;
 }
 
 /** The well: radius rw (m; 0 for a line source), casing radius rc (m) and skin Sk (1). */
@@ -260,7 +295,7 @@ export class VerticalModeSeries {
     const g = this.geometry;
     const { rw } = this.well;
     const b = g.b;
-    const m2 = (aq.S * p + aq.lambda) / aq.T;
+    const m2 = (aq.S * p + aq.lambda + (aq.blocks ? blockStorageTerm(p, aq.blocks) : 0)) / aq.T;
     const kz = aq.kappa / (b * b);
     const waterTable = aq.Sy > 0;
     const gamma = waterTable
@@ -306,7 +341,7 @@ export class VerticalModeSeries {
    */
   directTerms(p: number, aq: ModeAquifer): number {
     const b = this.geometry.b;
-    const m = Math.sqrt((aq.S * p + aq.lambda) / aq.T);
+    const m = Math.sqrt((aq.S * p + aq.lambda + (aq.blocks ? blockStorageTerm(p, aq.blocks) : 0)) / aq.T);
     const k = (Math.PI * Math.sqrt(aq.kappa)) / b;
     const gamma =
       aq.Sy > 0 ? ((aq.Sy * b * b * p) / (aq.kappa * aq.T)) * (aq.alpha === Infinity ? 1 : aq.alpha / (aq.alpha + p)) : 0;
