@@ -122,3 +122,4 @@ export {
   moenchDoublePorosityModel,
   type DoublePorosityGeometry,
 } from "./moench-double-porosity.js";
+export { papadopulosAnisotropyModel, transmissivityEllipse, transmissivityTensor } from "./papadopulos-anisotropy.js";
