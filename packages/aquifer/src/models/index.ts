@@ -123,3 +123,4 @@ export {
   type DoublePorosityGeometry,
 } from "./moench-double-porosity.js";
 export { papadopulosAnisotropyModel, transmissivityEllipse, transmissivityTensor } from "./papadopulos-anisotropy.js";
+export { gringartenFractureModel, type FractureGeometry } from "./gringarten-fracture.js";
