@@ -147,12 +147,48 @@ def bench_step_fit(case):
             "nfev": int(res.nfev)}
 
 
+def bench_closed_form(case):
+    """Double porosity (full penetration, Papadopulos-Cooper form with block storage, Stehfest), Papadopulos (1965)
+    anisotropy (exp1) and the uniform-flux fracture (closed form on its line with scipy.special.erf)."""
+    t = np.asarray(case["t"], dtype=float)
+    kind = case["kind"]
+    if kind == "double-porosity":
+        weights = stehfest_weights(12)
+        a = (math.log(2) / t)[:, None]
+        p = a * np.arange(1, 13)[None, :]
+        eta = np.sqrt(p / case["rate"])
+        F = np.tanh(eta) / eta
+        def run():
+            q = np.sqrt((case["S"] * p + case["Sm"] * p * F) / case["T"])
+            return case["Q"] * a[:, 0] * ((special.k0(q * case["r"]) / (2 * np.pi * case["T"] * p)) @ weights)
+    elif kind == "anisotropy":
+        Tx, Ty, Txy = case["Txx"], case["Tyy"], case["Txy"]
+        det = Tx * Ty - Txy ** 2
+        x, y = case["x"], case["y"]
+        def run():
+            u = case["S"] * (Tx * y * y + Ty * x * x - 2 * Txy * x * y) / (4 * t * det)
+            return case["Q"] * special.exp1(u) / (4 * np.pi * math.sqrt(det))
+    else:
+        xf = case["xf"]
+        def run():
+            c = case["S"] / (4 * case["T"] * t)
+            F = xf * special.exp1(c * xf * xf) + np.sqrt(np.pi / c) * special.erf(np.sqrt(c) * xf)
+            return case["Q"] * 2 * F / (8 * np.pi * case["T"] * xf)
+    seconds, values = best_of(case["repeats"], run)
+    return {"usPerPoint": seconds / t.size * 1e6, "values": values.tolist()}
+
+
 def main():
     with open(sys.argv[1]) as handle:
         cases = json.load(handle)
     out = {}
     for name, case in cases.items():
-        out[name] = bench_step_fit(case) if name == "step-fit" else bench_series(case)
+        if name == "step-fit":
+            out[name] = bench_step_fit(case)
+        elif name.startswith("closed-"):
+            out[name] = bench_closed_form(case)
+        else:
+            out[name] = bench_series(case)
     print(json.dumps(out))
 
 

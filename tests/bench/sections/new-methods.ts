@@ -13,7 +13,11 @@ import {
   doughertyBabuModel,
   fitModel,
   fitStepDrawdown,
+  gringartenFractureModel,
   kgsSlugModel,
+  moenchDoublePorosityModel,
+  papadopulosAnisotropyModel,
+  transmissivityTensor,
   moenchWaterTableModel,
   neumanPartialPenetrationModel,
   stepDrawdownModel,
@@ -82,6 +86,40 @@ function cases(): SeriesCase[] {
   ];
 }
 
+/** Models with closed-form peers: double porosity (full penetration), anisotropy and the fracture. */
+function closedFormCases() {
+  const tensor = transmissivityTensor(400, 90, 0.6);
+  return [
+    {
+      label: "Moench (1984) double porosity, slab blocks, r = 20 m",
+      model: moenchDoublePorosityModel({ thickness: 30, screenTop: 0, screenBottom: 30, anisotropy: 1, rw: 1e-3, rc: 0 }),
+      parameters: [80, 1e-5, 5e-4, 2],
+      geometry: { r: 20, Q: 300 },
+      peerCase: { kind: "double-porosity", T: 80, S: 1e-5, Sm: 5e-4, rate: 2, Q: 300, r: 20 },
+      peerName: "numpy + scipy.special.k0, line source, Stehfest N = 12",
+      tolerance: 1e-6,
+    },
+    {
+      label: "Papadopulos (1965) anisotropy",
+      model: papadopulosAnisotropyModel,
+      parameters: [400, 90, 0.6, 3e-4],
+      geometry: { r: 39.05, Q: 1200, x: -30, y: -25 },
+      peerCase: { kind: "anisotropy", ...tensor, S: 3e-4, Q: 1200, x: -30, y: -25 },
+      peerName: "numpy + scipy.special.exp1",
+      tolerance: 1e-12,
+    },
+    {
+      label: "Gringarten (1974) uniform-flux fracture, pumped well",
+      model: gringartenFractureModel({ halfLength: 15 }),
+      parameters: [60, 2e-4],
+      geometry: { r: 0.1, Q: 250 },
+      peerCase: { kind: "fracture", T: 60, S: 2e-4, Q: 250, xf: 15 },
+      peerName: "numpy + scipy.special exp1, erf",
+      tolerance: 1e-12,
+    },
+  ];
+}
+
 /** The step test: an invented four-step schedule, 50 readings a step, seeded 4 mm noise. */
 function stepData() {
   const steps = [{ start: 0, rate: 400 }, { start: 0.0833, rate: 700 }, { start: 0.1667, rate: 1000 }, { start: 0.25, rate: 1300 }];
@@ -106,6 +144,8 @@ export function newMethodBenchmarks(): Measurement[] {
   const step = stepData();
   const stepStart = { T: 100, S: 1e-3, C: 1e-6, n: 2 };
   const peerInput: Record<string, unknown> = Object.fromEntries(list.map((c, i) => [`series-${i}`, { ...c.peerCase, repeats: 1 }]));
+  const closed = closedFormCases();
+  closed.forEach((c, i) => (peerInput[`closed-${i}`] = { ...c.peerCase, t: Array.from(T_POINTS), repeats: 5 }));
   peerInput["step-fit"] = { steps: step.steps, t: step.t, s: step.s, rw: 0.15, start: stepStart, repeats: 3 };
   const peer = runPeer(peerInput);
   const out: Measurement[] = [];
@@ -135,6 +175,32 @@ export function newMethodBenchmarks(): Measurement[] {
       peerName: "numpy + scipy.special, every term summed",
       target: { absolute: 50 },
       note: `${note}; Stehfest N = 12, t over 5 log cycles`,
+    });
+  });
+
+  closed.forEach((c, i) => {
+    const t = Array.from(T_POINTS);
+    let values: Float64Array = new Float64Array(0);
+    const ms = bestOf(5, () => c.model.drawdown(c.parameters, c.geometry, t), (v) => {
+      values = v;
+      if (!v.every(Number.isFinite)) throw new Error(`${c.label}: drawdowns are not all finite`);
+    });
+    let note = "no peer: values checked finite only";
+    if (peer) {
+      const theirs = peer[`closed-${i}`]!.values as number[];
+      let worst = 0;
+      theirs.forEach((v, k) => (worst = Math.max(worst, Math.abs(values[k]! / v - 1))));
+      if (!(worst <= c.tolerance)) throw new Error(`${c.label}: differs from the peer by ${worst.toExponential(2)}, more than ${c.tolerance}`);
+      note = `agrees with the peer to ${worst.toExponential(1)} relative`;
+    }
+    out.push({
+      name: `${c.label}, ${t.length} points`,
+      value: (ms * 1e3) / t.length,
+      unit: "us/point",
+      peer: peer ? (peer[`closed-${i}`]!.usPerPoint as number) : undefined,
+      peerName: c.peerName,
+      target: { absolute: 50 },
+      note,
     });
   });
 
