@@ -6,6 +6,7 @@ import { machineLine, printTable } from "./harness.js";
 import { cliBenchmarks } from "./sections/cli.js";
 import { kernelBenchmarks } from "./sections/kernel.js";
 import { laplaceModelBenchmarks } from "./sections/laplace-models.js";
+import { newMethodBenchmarks } from "./sections/new-methods.js";
 import { wellFunctionsAndFit } from "./sections/well-functions-and-fit.js";
 import { workbenchBenchmarks } from "./sections/workbench.js";
 
@@ -13,6 +14,7 @@ console.log("# Conebook benchmarks");
 console.log(machineLine());
 printTable("Well functions and fitting (aquifer)", wellFunctionsAndFit());
 printTable("Laplace-domain models (aquifer)", laplaceModelBenchmarks());
+printTable("Screened wells, slug and step tests (aquifer)", newMethodBenchmarks());
 printTable("Sandbox, bridge and documents (kernel)", await kernelBenchmarks());
 printTable("Command line (cli)", cliBenchmarks());
 printTable("Workbench page in Chromium (viewer)", await workbenchBenchmarks());

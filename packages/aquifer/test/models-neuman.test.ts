@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import { describe, it, expect } from "vitest";
 import { neumanDimensionless, neumanModel, neumanTypeCurves } from "../src/models/neuman.js";
-import { neumanNextRoot, neumanRoot, neumanTransform, newNeumanTransform } from "../src/models/neuman-laplace.js";
+import { neumanNextRoot, neumanRoot, neumanTransform, neumanTransformValue, newNeumanTransform } from "../src/models/neuman-laplace.js";
 import { neumanTransformBySeries } from "../src/models/neuman-laplace-reference.js";
 import { stehfestWithDerivatives } from "../src/models/neuman-stehfest.js";
 import { besselK0, expint1 } from "../src/special/index.js";
@@ -80,6 +80,18 @@ describe("the Neuman Laplace-domain series", () => {
     }
     expect(worstTransform).toBeLessThan(1e-13);
     expect(worstDrawdown).toBeLessThan(1e-9);
+  });
+
+  it("computes F(p) in the value-only loop bit for bit as the full evaluation does (p 1e-3..1e6)", () => {
+    const record = newNeumanTransform();
+    for (const sigma of [1e-4, 0.02, 1]) {
+      for (const beta of [1e-3, 0.05, 3]) {
+        for (const p of [1e-3, 0.1, 7, 300, 1e6]) {
+          neumanTransform(p, sigma, beta, 1e-10, false, record);
+          expect(neumanTransformValue(p, sigma, beta, 1e-10), `p ${p}, sigma ${sigma}, beta ${beta}`).toBe(record.value);
+        }
+      }
+    }
   });
 
   it("matches the root-free Hankel-space evaluation of mpmath to 1e-9 relative (checks the series itself)", () => {

@@ -30,3 +30,4 @@ export {
   type ModelRankingRow,
 } from "./compare-models.js";
 export { boundariesFromRecords, type BoundaryRecord } from "./boundary-records.js";
+export { fitAnisotropy, type AnisotropyFit } from "./anisotropy-fit.js";

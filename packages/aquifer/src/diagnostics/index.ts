@@ -15,3 +15,5 @@ export type {
 export { regimeHints } from "./regime-hints.js";
 export type { RegimeHint, RegimeHintKind, RegimeHintOptions, RegimeHintResult } from "./regime-hints.js";
 export { transmissivityFromDerivativeLevel } from "./transmissivity-from-level.js";
+export { slopeHints, type SlopeHint, type SlopeHintKind, type SlopeHintOptions } from "./regime-slopes.js";
+export { compositePlot, hornerPlot, powerTimePlot, type CompositeSeries, type SpecialisedPlot } from "./specialised-plots.js";

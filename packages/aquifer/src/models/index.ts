@@ -91,3 +91,51 @@ export {
   type HantushStorageTypeCurve,
   type HantushStorageTypeCurveFamily,
 } from "./hantush-aquitard-storage.js";
+export {
+  DIRECT_CAP,
+  SERIES_TOLERANCE,
+  VerticalModeSeries,
+  modeDrawdownTransform,
+  type ModeAquifer,
+  type ModeWell,
+  type VerticalGeometry,
+} from "./vertical-modes.js";
+export {
+  drainageConstantParameter,
+  screenAnisotropyParameter,
+  skinParameter,
+  type FiniteWell,
+  type ScreenedWellGeometry,
+} from "./screened-well.js";
+export { doughertyBabuModel, type DoughertyBabuGeometry, type DoughertyBabuModel } from "./dougherty-babu.js";
+export {
+  moenchWaterTableModel,
+  neumanPartialPenetrationModel,
+  type MoenchGeometry,
+  type NeumanPartialGeometry,
+  type WaterTableModel,
+} from "./moench-water-table.js";
+export {
+  dupuitThiemModel,
+  dupuitThiemTwoWells,
+  hydraulicConductivityParameter,
+  type DupuitThiemModel,
+} from "./dupuit-thiem.js";
+export {
+  hantushJacobMatchPoint,
+  neumanMatchPoint,
+  type HantushJacobMatchInput,
+  type HantushJacobMatchResult,
+  type NeumanMatchInput,
+  type NeumanMatchResult,
+} from "./type-curve-match-points.js";
+export { blockStorageTerm, type MatrixBlocks } from "./vertical-modes.js";
+export {
+  blockRateParameter,
+  blockStorativityParameter,
+  fractureSkinParameter,
+  moenchDoublePorosityModel,
+  type DoublePorosityGeometry,
+} from "./moench-double-porosity.js";
+export { papadopulosAnisotropyModel, transmissivityEllipse, transmissivityTensor } from "./papadopulos-anisotropy.js";
+export { gringartenFractureModel, type FractureGeometry } from "./gringarten-fracture.js";

@@ -79,23 +79,32 @@ export function newNeumanTransform(): NeumanTransform {
  * Guess g = n pi + atan(c / (previous + pi)) (one fixed-point step of eps = n pi + atan(c / eps)), then one
  * Newton step on h(eps) = eps - n pi - atan(c / eps), where h(g) = atan(z), z = c (g - previous - pi) /
  * ((previous + pi) g + c^2) by the arctangent subtraction formula (its Taylor series for |z| <= 1e-2, to
- * 1e-19 absolute). The Newton result is accepted when its quadratic error estimate
- * |h''| / (2 h') step^2 (twice, as a margin; |h''| = 2 c eps / (eps^2 + c^2)^2) is below 1e-16 eps and the
- * step is below 1e-3 eps; otherwise Newton's method continues in neumanRoot. Accuracy as neumanRoot's.
+ * 1e-19 absolute), then Newton steps on h, each new residual again from the subtraction formula. A Newton
+ * result is accepted when its quadratic error estimate |h''| / (2 h') step^2 (twice, as a margin;
+ * |h''| = 2 c eps / (eps^2 + c^2)^2) is below 1e-16 eps and the step is below 1e-3 eps; after four steps
+ * (not met in the tests) the bracketed solver neumanRoot finishes. Accuracy as neumanRoot's.
  */
 export function neumanNextRoot(n: number, c: number, previous: number): number {
+  const base = n * Math.PI;
   const shifted = previous + Math.PI;
-  const g = n * Math.PI + Math.atan(c / shifted);
+  let g = base + Math.atan(c / shifted);
   const z = (c * (g - shifted)) / (shifted * g + c * c);
   const z2 = z * z;
-  const h = Math.abs(z) <= 1e-2 ? z * (1 - z2 * (1 / 3 - z2 * (1 / 5 - z2 / 7))) : Math.atan(z);
-  const g2c2 = g * g + c * c;
-  const slope = 1 + c / g2c2;
-  const step = h / slope;
-  const e = g - step;
-  const curvature = (c * g) / (g2c2 * g2c2 * slope);
-  if (Math.abs(step) <= 1e-3 * g && 2 * curvature * step * step <= 1e-16 * e) return e;
-  return neumanRoot(n, c, e);
+  let h = Math.abs(z) <= 1e-2 ? z * (1 - z2 * (1 / 3 - z2 * (1 / 5 - z2 / 7))) : Math.atan(z);
+  for (let iteration = 0; iteration < 4; iteration++) {
+    const g2c2 = g * g + c * c;
+    const slope = 1 + c / g2c2;
+    const step = h / slope;
+    const e = g - step;
+    const curvature = (c * g) / (g2c2 * g2c2 * slope);
+    if (Math.abs(step) <= 1e-3 * g && 2 * curvature * step * step <= 1e-16 * e) return e;
+    if (!(e > base && e < base + Math.PI / 2)) break;
+    // h(e) = e - base - atan(c / e) = (h(g) - step) + atan(c / g) - atan(c / e), the difference of the
+    // arctangents by the subtraction formula atan(c (e - g) / (g e + c^2)), so no digits cancel.
+    h = h - step + Math.atan((c * (e - g)) / (g * e + c * c));
+    g = e;
+  }
+  return neumanRoot(n, c, g);
 }
 
 /**
@@ -176,3 +185,29 @@ export function neumanTransform(
   }
   return converged;
 }
+
+/**
+ * F(p) alone (no derivatives), as {@link neumanTransform} computes it: the same roots, terms and truncation
+ * rule in a loop without the derivative work, for the drawdown evaluations that need no Jacobian.
+ * Dimensionless; NaN when NEUMAN_MAX_TERMS terms do not reach the tolerance.
+ */
+export function neumanTransformValue(p: number, sigma: number, beta: number, tolerance: number): number {
+  const c = p / (sigma * beta);
+  const cc = c * c;
+  const twoC2 = 2 * c * c;
+  let sum = 0;
+  let weightSum = 0;
+  let e = neumanRoot(0, c, firstRootGuess(c));
+  for (let n = 0; n < NEUMAN_MAX_TERMS; n++) {
+    if (n > 0) e = neumanNextRoot(n, c, e);
+    const e2 = e * e;
+    const w = twoC2 / (e2 * (e2 + cc + c));
+    const x = Math.sqrt(p + beta * e2);
+    const k0 = x > 2 ? besselK0e(x) * Math.exp(-x) : besselK0(x);
+    sum += w * k0;
+    weightSum += w;
+    if (n >= 1 && k0 * (1 - weightSum) <= tolerance * sum) return (2 / p) * sum;
+  }
+  return Number.NaN;
+}
+

@@ -16,9 +16,10 @@
  */
 import { checkGeometry, checkParameters, checkScalar, outputArray } from "./checks.js";
 import type { DrawdownModel, ObservationGeometry, ParameterDescriptor } from "./model.js";
-import { neumanTransform, newNeumanTransform } from "./neuman-laplace.js";
+import { neumanTransform, neumanTransformValue, newNeumanTransform } from "./neuman-laplace.js";
 import { stehfestWithDerivatives, type TransformWithDerivatives } from "./neuman-stehfest.js";
 import { transmissivityParameter } from "./parameters.js";
+import { stehfestCoefficients } from "../numerics/index.js";
 
 const FOUR_PI = 4 * Math.PI;
 
@@ -26,6 +27,11 @@ const FOUR_PI = 4 * Math.PI;
 export const NEUMAN_STEHFEST_TERMS = 12;
 /** Relative truncation tolerance of the root series at each Laplace variable. */
 export const NEUMAN_SERIES_TOLERANCE = 1e-10;
+
+const STEHFEST_WEIGHTS = stehfestCoefficients(NEUMAN_STEHFEST_TERMS);
+/** Scratch records reused by every evaluation (the library runs on one thread and never re-enters here). */
+const SCRATCH = newNeumanTransform();
+const SENSITIVITY_SCRATCH = new Float64Array(4);
 
 /** Elastic storativity S of the saturated zone. */
 export const elasticStorativityParameter: ParameterDescriptor = {
@@ -70,20 +76,26 @@ export interface NeumanModel extends DrawdownModel {
  * relative for t_s >= 1, worse at the earliest times where s_D is small). Source: Neuman (1974) as above.
  */
 export function neumanDimensionless(ts: number, sigma: number, beta: number, sensitivities?: Float64Array): number {
-  const record = newNeumanTransform();
+  const weights = STEHFEST_WEIGHTS;
+  const a = Math.LN2 / ts;
+  if (sensitivities === undefined) {
+    let sum = 0;
+    for (let k = 1; k <= weights.length; k++) {
+      sum += weights[k - 1]! * neumanTransformValue(k * a, sigma, beta, NEUMAN_SERIES_TOLERANCE);
+    }
+    return a * sum;
+  }
   const transform: TransformWithDerivatives = (p, derivatives, values) => {
-    neumanTransform(p, sigma, beta, NEUMAN_SERIES_TOLERANCE, derivatives, record);
-    values[0] = record.value;
+    neumanTransform(p, sigma, beta, NEUMAN_SERIES_TOLERANCE, derivatives, SCRATCH);
+    values[0] = SCRATCH.value;
     if (derivatives) {
-      values[1] = record.dp;
-      values[2] = record.dSigma;
-      values[3] = record.dBeta;
+      values[1] = SCRATCH.dp;
+      values[2] = SCRATCH.dSigma;
+      values[3] = SCRATCH.dBeta;
     }
   };
-  const scratch = new Float64Array(4);
-  const result = sensitivities ?? new Float64Array(4);
-  stehfestWithDerivatives(transform, ts, NEUMAN_STEHFEST_TERMS, sensitivities !== undefined, scratch, result);
-  return result[0]!;
+  stehfestWithDerivatives(transform, ts, NEUMAN_STEHFEST_TERMS, true, SENSITIVITY_SCRATCH, sensitivities);
+  return sensitivities[0]!;
 }
 
 /**

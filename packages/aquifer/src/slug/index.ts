@@ -32,3 +32,12 @@ export {
   type CbpFitResult,
   type CbpGeometry,
 } from "./cbp-fit.js";
+export { fitKgsSlugTest, kgsSlugModel, type KgsGeometry, type KgsModel } from "./kgs.js";
+export {
+  GRAVITY_M_PER_D2,
+  fitUnderdampedSlugTest,
+  underdampedNormalizedHead,
+  underdampedSlugModel,
+  type UnderdampedGeometry,
+} from "./underdamped.js";
+export { slugRecordChecks, type SlugCheck } from "./record-checks.js";

@@ -25,3 +25,12 @@ export {
   type HantushBierschenkOptions,
   type HantushBierschenkResult,
 } from "./hantush-bierschenk.js";
+export {
+  fitStepDrawdown,
+  stepDrawdownModel,
+  wellLossExponentParameter,
+  wellLossParameter,
+  type StepDrawdownFit,
+  type StepDrawdownFitInput,
+} from "./transient-step-fit.js";
+export { transmissivityFromSpecificCapacity, type SpecificCapacityEstimate } from "./specific-capacity.js";
