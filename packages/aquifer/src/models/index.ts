@@ -44,6 +44,7 @@ export {
   type PapadopulosCooperModel,
   type WellboreGeometry,
 } from "./papadopulos-cooper.js";
+export { wellboreStorageTime, type WellboreStorageTime } from "./wellbore-storage-time.js";
 export {
   PARTIAL_PENETRATION_TOLERANCE,
   anisotropyParameter,

@@ -127,6 +127,7 @@ export function neumanModel(b: number): NeumanModel {
         "geology and, ideally, several observation distances.",
     ],
     parameters: [transmissivityParameter, elasticStorativityParameter, specificYieldParameter, anisotropyRatioParameter],
+    orderedParameters: [["S", "Sy"]],
     saturatedThickness: b,
 
     drawdown(p: ArrayLike<number>, geometry: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {
