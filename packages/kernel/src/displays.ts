@@ -113,8 +113,10 @@ function fitTitle(result: Record<string, unknown>): string {
 }
 
 /**
- * The parameter table of a fit: one row per parameter with estimate, standard error and 95 % interval (base
- * units, as aq.fitModel returns them), then one row each for RMSE (m), AIC and BIC when the result has them.
+ * The parameter table of a fit: one row per parameter with estimate, standard error, 95 % interval (base
+ * units, as aq.fitModel returns them) and which interval it is, then one row each for RMSE (m), AIC and BIC when
+ * the result has them, the residual checks (Durbin-Watson d and its p-value, lag-1 autocorrelation) and the statement of which
+ * intervals are shown. A result with errors gets "NOT RELIABLE" in its title and one row per error first.
  * Reads `result.parameters`: the FitResult shape `[{ name, label?, unit, estimate, standardError, ci95: [low,
  * high] | null, fixed? }]`, or the older spellings `value`, `se`, `interval95`, or a record keyed by name.
  * A fixed parameter is named "NAME (fixed)" and has no standard error or interval.
@@ -140,6 +142,7 @@ export function fitTableOutput(result: unknown, options: unknown = {}): TableOut
       lo,
       hi,
       cell(pick(p, "unit") ?? ""),
+      typeof p.ci95Method === "string" ? p.ci95Method : null,
     ];
   });
   const r = result as Record<string, unknown>;
@@ -149,13 +152,33 @@ export function fitTableOutput(result: unknown, options: unknown = {}): TableOut
     ["BIC", r.bic, ""],
   ];
   for (const [name, value, unit] of summary) {
-    if (value !== undefined) rows.push([name, statistic(value), null, null, null, unit]);
+    if (value !== undefined) rows.push([name, statistic(value), null, null, null, unit, null]);
   }
+  const diagnostics = isRecord(r.diagnostics) ? r.diagnostics : undefined;
+  if (diagnostics && isRecord(diagnostics.durbinWatson)) {
+    const dw = diagnostics.durbinWatson;
+    rows.push(["Durbin-Watson d", statistic(dw.statistic), null, null, null, "", null]);
+    rows.push(["Durbin-Watson p-value", statistic(dw.pValue), null, null, null, "", null]);
+    rows.push(["lag-1 autocorrelation", statistic(diagnostics.lag1Autocorrelation), null, null, null, "", diagnostics.independent === false ? "not independent" : null]);
+  }
+  const uncertainty = isRecord(r.uncertainty) ? r.uncertainty : undefined;
+  if (uncertainty && typeof uncertainty.statement === "string") rows.push(["intervals", uncertainty.statement, null, null, null, "", null]);
+  const errors = Array.isArray(r.errors) ? r.errors.filter((e): e is string => typeof e === "string") : [];
+  rows.unshift(...errors.map((e): Cell[] => ["ERROR", e, null, null, null, "", null]));
   const opts = isRecord(options) ? options : {};
+  const title = typeof opts.title === "string" ? opts.title : fitTitle(r);
   return {
     type: "table",
-    title: typeof opts.title === "string" ? opts.title : fitTitle(r),
-    columns: [{ name: "parameter" }, { name: "estimate" }, { name: "standard error" }, { name: "95 % low" }, { name: "95 % high" }, { name: "unit" }],
+    title: errors.length > 0 ? `NOT RELIABLE (${errors.length} error${errors.length === 1 ? "" : "s"}): ${title}` : title,
+    columns: [
+      { name: "parameter" },
+      { name: "estimate" },
+      { name: "standard error" },
+      { name: "95 % low" },
+      { name: "95 % high" },
+      { name: "unit" },
+      { name: "interval" },
+    ],
     rows,
   };
 }

@@ -648,7 +648,9 @@ function assemble(
       const involved = direction.map(({ index }) => freeNames[index]!).join(" and ");
       errors.push(
         `${involved} cannot be determined separately from these data: the combination ${terms} is not constrained ` +
-          `(smallest singular value of the Jacobian is ${formatNumber(linear.singularValues[linear.singularValues.length - 1]! / linear.singularValues[0]!)} of the largest). ` +
+          (linear.singularValues[0]! > 0
+            ? `(smallest singular value of the Jacobian is ${formatNumber(linear.singularValues[linear.singularValues.length - 1]! / linear.singularValues[0]!)} of the largest). `
+            : "(the model's drawdown does not respond to the parameters at all at these readings). ") +
           "Fix one of them, or add data that separate them (e.g. a second observation well or a longer record).",
       );
     }
@@ -683,6 +685,15 @@ function assemble(
           "sets this value and its uncertainty means nothing; check the model choice (e.g. Theis instead of a leaky model whose B runs to its upper bound) or widen the bound.",
       );
     }
+  }
+  for (const fp of parameters) {
+    if (!fp.profileOpen || fp.atBound) continue;
+    const side = fp.profileOpen === "both" ? "either side" : fp.profileOpen === "upper" ? "above" : "below";
+    warnings.push(
+      `The data do not bound ${fp.name} from ${side}: its profile-likelihood interval runs to the bound ` +
+        `(${formatNumber(fp.ci95![0])} to ${formatNumber(fp.ci95![1])} ${fp.unit}), so any value out to the bound fits about as well` +
+        (fp.name === "B" && fp.profileOpen !== "lower" ? "; the record shows no clear leakage, and a model without it may serve as well." : "."),
+    );
   }
   for (const [ka, kb] of space.ordered) {
     const [lo, hi] = space.nativeBounds[ka]!;
@@ -828,7 +839,9 @@ function uncertaintyStatement(
   if (ar1) {
     parts.push(
       `95 % intervals are AR(1)-corrected (${mode === "ar1" ? "as asked" : "because the residuals are serially correlated"}): ` +
-        `rho = ${formatNumber(ar1.rho)} (likely range ${formatNumber(ar1.rhoRange[0])} to ${formatNumber(ar1.rhoRange[1])}, integrated over), ` +
+        (ar1.rhoRange[0] === ar1.rhoRange[1]
+          ? `rho = ${formatNumber(ar1.rho)} (at the upper end of the range the correction covers), `
+          : `rho = ${formatNumber(ar1.rho)} (likely range ${formatNumber(ar1.rhoRange[0])} to ${formatNumber(ar1.rhoRange[1])}, integrated over), `) +
         `about ${formatNumber(ar1.effectiveN)} effective readings, widest quantile ${formatNumber(t)}` +
         `${Number.isFinite(dof) ? ` (as Student t for ${formatNumber(dof)} degrees of freedom)` : ""}; independent-error intervals would be too narrow.`,
     );

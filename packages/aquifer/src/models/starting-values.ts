@@ -8,6 +8,7 @@ import { cooperJacobLine, type CooperJacobLineResult } from "./cooper-jacob.js";
 import { checkGeometry } from "./checks.js";
 import { ModelInputError } from "./errors.js";
 import type { DrawdownModel, ObservationGeometry } from "./model.js";
+import { neumanStartingValues } from "./neuman-start.js";
 import { getModel } from "./registry.js";
 
 /** Starting parameter vector and how it was obtained. */
@@ -144,6 +145,8 @@ function hantushTypeCurveSearch(
  * - hantush-jacob: T, S and B of the best point of a type-curve search over u and r/B (final grid
  *   factor 1.12 in each), since levelling-off makes the late straight line too flat;
  * - thiem: T of the Cooper-Jacob line; R from the drawdown at the latest time, R = r exp(2 pi T s / Q);
+ * - neuman: S from the early readings and S + Sy from the late ones (neuman-start.ts), so that the elastic
+ *   storativity and the specific yield start the right way round, and Kz/Kr from a search;
  * - any other model whose parameters begin with T and S (well-bore storage, partial penetration...): T and S
  *   of the Cooper-Jacob line, further parameters at the geometric middle of their bounds.
  * Values outside the descriptor bounds are moved to the nearest bound, with a note.
@@ -158,6 +161,10 @@ export function startingValues(
 ): StartingValues {
   const m = typeof model === "string" ? getModel(model) : model;
   checkGeometry(`startingValues for ${m.name}`, geometry);
+  if (m.id === "neuman") {
+    const start = neumanStartingValues(m, geometry, t, s);
+    return { values: start.values.map((v, k) => clamp(m, k, v, start.notes)), notes: start.notes };
+  }
   if (m.id === "hantush-jacob") {
     const g = hantushTypeCurveSearch(t, s, geometry);
     const notes = [
