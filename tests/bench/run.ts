@@ -4,6 +4,7 @@
  */
 import { machineLine, printTable } from "./harness.js";
 import { cliBenchmarks } from "./sections/cli.js";
+import { coverageSection } from "./sections/coverage.js";
 import { kernelBenchmarks } from "./sections/kernel.js";
 import { laplaceModelBenchmarks } from "./sections/laplace-models.js";
 import { wellFunctionsAndFit } from "./sections/well-functions-and-fit.js";
@@ -14,3 +15,4 @@ printTable("Well functions and fitting (aquifer)", wellFunctionsAndFit());
 printTable("Laplace-domain models (aquifer)", laplaceModelBenchmarks());
 printTable("Sandbox, bridge and documents (kernel)", await kernelBenchmarks());
 printTable("Command line (cli)", cliBenchmarks());
+coverageSection();
