@@ -31,8 +31,9 @@ export type ResidualCorrelation = "auto" | "independent" | "ar1";
 
 /**
  * When profile-likelihood intervals are computed: "auto" (default) for parameters whose quadratic interval
- * reaches a bound or spans more than a factor of about 4 (SE of ln p above 0.35), "always" for every free
- * parameter, "never".
+ * reaches a bound or spans more than a factor of about 4 (SE of ln p above 0.35), unless the parameter sits on a
+ * bound or the Jacobian is rank-deficient (errors then say the values are meaningless); "always" for every free
+ * parameter; "never".
  */
 export type ProfileChoice = "auto" | "always" | "never";
 
@@ -562,9 +563,13 @@ function assemble(
     const se = Math.sqrt(v);
     return [toNativeValue(j, naturalEstimate[j]! - t * se), toNativeValue(j, naturalEstimate[j]! + t * se)];
   };
+  const rankDeficient = linear !== null && linear.nullDirections.length > 0;
   for (let j = 0; j < p && profileChoice !== "never"; j++) {
     const v = shownFit[j]![j]!;
     if (!Number.isFinite(v) || space.ratioOf[j]! >= 0) continue;
+    // "auto" leaves out fits whose Jacobian is rank-deficient and parameters on a bound: errors say those are meaningless.
+    const onBound = lm.x[j]! <= space.lower[j]! || lm.x[j]! >= space.upper[j]!;
+    if (profileChoice === "auto" && (rankDeficient || onBound)) continue;
     const se = Math.sqrt(v);
     const level = quantileOf(j);
     const crosses = lm.x[j]! - level * se <= space.lower[j]! || lm.x[j]! + level * se >= space.upper[j]!;

@@ -99,7 +99,7 @@ function conditionalFit(setting: ProfileSetting, j: number, c: number, start: Fl
     ftol: setting.ftol ?? 1e-10,
     xtol: setting.xtol ?? 1e-10,
     gtol: setting.gtol ?? 1e-10,
-    maxEvaluations: 100 * p,
+    maxEvaluations: 50 * p,
     finiteDifferences: setting.finiteDifferences ?? "central",
     initialResiduals: probe,
   });
@@ -108,7 +108,8 @@ function conditionalFit(setting: ProfileSetting, j: number, c: number, start: Fl
 
 /**
  * Profile interval of fitting-space coordinate j (see the module comment). Each end is bracketed by doubling
- * the step from theta_hat +- level * SE, then found by regula falsi (Illinois) on tau to 1e-3 of the level.
+ * the step from theta_hat +- level * SE (at most 8 doublings), then found by regula falsi (Illinois) on tau to
+ * 1e-3 of the level (at most 12 steps, then the middle of the bracket).
  */
 export function profileInterval(setting: ProfileSetting, j: number): ProfileInterval {
   const { optimum, ssrMin } = setting;
@@ -133,7 +134,7 @@ export function profileInterval(setting: ProfileSetting, j: number): ProfileInte
     let trial = tau(centre + direction * d, others);
     let guard = 0;
     while (trial.tau < setting.level) {
-      if (d >= room || guard++ > 12) return { end: centre + direction * Math.min(d, room), open: true };
+      if (d >= room || guard++ > 8) return { end: centre + direction * Math.min(d, room), open: true };
       dLow = d;
       tauLow = trial.tau;
       startLow = trial.x;
@@ -145,7 +146,7 @@ export function profileInterval(setting: ProfileSetting, j: number): ProfileInte
     let fLow = tauLow - setting.level;
     let startHigh: Float64Array = trial.x;
     let lastSide = 0;
-    for (let iteration = 0; iteration < 20; iteration++) {
+    for (let iteration = 0; iteration < 12; iteration++) {
       const next = (dLow * fHigh - dHigh * fLow) / (fHigh - fLow);
       const dMid = next > dLow && next < dHigh ? next : 0.5 * (dLow + dHigh);
       const nearer = dMid - dLow < dHigh - dMid ? startLow : startHigh;
