@@ -158,7 +158,9 @@ describe("the Kestrel Moor worked analysis", () => {
       direct.parameters.forEach((p, i) => {
         expect(rows[i]!.slice(1, 5)).toEqual([p.estimate, p.standardError, p.ci95![0], p.ci95![1]]);
       });
-      expect(rows.slice(-3).map((r) => r[1])).toEqual([direct.rmse, direct.aic, direct.bic]);
+      const named = (name: string) => rows.find((r) => r[0] === name)?.[1];
+      expect([named("RMSE"), named("AIC"), named("BIC")]).toEqual([direct.rmse, direct.aic, direct.bic]);
+      expect(named("intervals")).toBe(direct.uncertainty.statement);
     }
   });
 

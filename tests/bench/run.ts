@@ -4,6 +4,7 @@
  */
 import { machineLine, printTable } from "./harness.js";
 import { cliBenchmarks } from "./sections/cli.js";
+import { coverageSection } from "./sections/coverage.js";
 import { kernelBenchmarks } from "./sections/kernel.js";
 import { laplaceModelBenchmarks } from "./sections/laplace-models.js";
 import { newMethodBenchmarks } from "./sections/new-methods.js";
@@ -17,4 +18,5 @@ printTable("Laplace-domain models (aquifer)", laplaceModelBenchmarks());
 printTable("Screened wells, slug and step tests (aquifer)", newMethodBenchmarks());
 printTable("Sandbox, bridge and documents (kernel)", await kernelBenchmarks());
 printTable("Command line (cli)", cliBenchmarks());
+coverageSection();
 printTable("Workbench page in Chromium (viewer)", await workbenchBenchmarks());

@@ -125,13 +125,14 @@ describe("fitModel with models without an analytic Jacobian", () => {
     expect(result.parameters[1]!.estimate).toBeCloseTo(2.5, 7);
   });
 
-  it("names the parameters that cannot be told apart", () => {
+  it("names the parameters that cannot be told apart, as an error that withholds convergence", () => {
     const data = productOnly.drawdown([2, 3], geometry, times);
     const noisy = data.map((v, i) => v + 1e-3 * Math.sin(7 * i));
     const result = fitModel({ model: productOnly, wells: [{ name: "W", geometry, t: times, s: noisy }], start: { a: 1, b: 1 } });
     expect(result.parameters[0]!.standardError).toBeNull();
     expect(result.parameters[1]!.standardError).toBeNull();
-    expect(result.warnings.some((w) => w.startsWith("a and b cannot be determined separately"))).toBe(true);
+    expect(result.errors.some((w) => w.startsWith("a and b cannot be determined separately"))).toBe(true);
+    expect(result.converged).toBe(false);
     // The product is still fitted.
     expect(result.parameters[0]!.estimate * result.parameters[1]!.estimate).toBeCloseTo(6, 2);
   });

@@ -142,13 +142,14 @@ describe("fitModel options", () => {
     expect(relative(param(result, "T").estimate, d.fit.estimates.T)).toBeLessThan(0.01);
   });
 
-  it("keeps the estimate inside bounds that exclude the unconstrained optimum and reports it at the bound", () => {
+  it("keeps the estimate inside bounds that exclude the unconstrained optimum and reports it at the bound as an error", () => {
     const result = fitModel({ model: theisModel, wells: wellsOf(d), bounds: { T: [10, 400] }, start: { T: 100, S: 1e-3 } });
     const T = param(result, "T");
     expect(T.estimate).toBeLessThanOrEqual(400);
     expect(relative(T.estimate, 400)).toBeLessThan(1e-12);
     expect(T.atBound).toBe("upper");
-    expect(result.warnings.some((w) => w.includes("T = 400") && w.includes("upper bound"))).toBe(true);
+    expect(result.errors.some((w) => w.includes("T = 400") && w.includes("upper bound"))).toBe(true);
+    expect(result.converged).toBe(false);
   });
 
   it("gives the same estimates with finite differences as with the analytic Jacobian", () => {

@@ -2,6 +2,7 @@ import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import {
   hantushJacobModel,
+  NEUMAN_DEHOOG_BELOW,
   neumanModel,
   papadopulosCooperModel,
   partialPenetrationModel,
@@ -133,7 +134,18 @@ describe("limits of the water-table models", () => {
     const np = neumanPartialPenetrationModel({ thickness: 20, screenTop: 0, screenBottom: 20, observation: { screenTop: 0, screenBottom: 20 } });
     for (const r of [5, 25]) {
       const p = [150, 2e-3, 0.12, 0.3];
-      expect(worstRelative(np.drawdown(p, { r, Q }, times), full.drawdown(p, { r, Q }, times)), `r ${r}`).toBeLessThan(2e-5);
+      // Neuman (1974) inverts by de Hoog below t_s = 0.15 (within 2e-7 of mpmath there); the screened-well
+      // engine keeps Stehfest N = 12, whose early-time error is of order 1e-3. So: 2e-5 where both use
+      // Stehfest, and the engine's Stehfest error bound (3e-3) from t_s = 0.05 to 0.15. Below t_s = 0.05 the
+      // engine's Stehfest values are not reliable (relative errors of order 1 where s_D < 1e-5).
+      const ts = (t: number) => (p[0]! * t) / (p[1]! * r * r);
+      const late = times.filter((t) => ts(t) >= NEUMAN_DEHOOG_BELOW);
+      const early = times.filter((t) => ts(t) < NEUMAN_DEHOOG_BELOW && ts(t) >= 0.05);
+      expect(late.length).toBeGreaterThan(2);
+      expect(worstRelative(np.drawdown(p, { r, Q }, late), full.drawdown(p, { r, Q }, late)), `r ${r}, t_s >= 0.15`).toBeLessThan(2e-5);
+      if (early.length > 0) {
+        expect(worstRelative(np.drawdown(p, { r, Q }, early), full.drawdown(p, { r, Q }, early)), `r ${r}, t_s < 0.15`).toBeLessThan(3e-3);
+      }
     }
   });
 

@@ -262,6 +262,6 @@ show.table({ t, s }, { title: "Drawdown readings used for the fit at TG-OB2", un
     expect(run.stdout).toMatch(/\n {6}S \(storativity\) = 0\.000\d+ \(95 %: /);
     const shown = await conebook("run", "fit.cone.md", "--show");
     expect(shown.stdout).toContain("    Drawdown readings used for the fit at TG-OB2\n    t (d)  s (m)");
-    expect(shown.stdout).toMatch(/\n {4}parameter +estimate +standard error +95 % low +95 % high +unit\n/);
+    expect(shown.stdout).toMatch(/\n {4}parameter +estimate +standard error +95 % low +95 % high +unit +interval\n/);
   });
 });

@@ -218,6 +218,7 @@ const wellFields = recordArg({
   t: samples,
   s: samples,
   weights: optional(samples),
+  sigma: optional(samples),
   mask: optional(booleansArg()),
   steps: optional(recordArg({ start: samples, rate: samples })),
 });
@@ -238,9 +239,19 @@ const wellArg: Validator<ObservationWell> = refine(wellFields, `${wellFields.exp
   if (!geometry) throw new ArgumentError(`${at} has no distance and rate; give geometry: { r, Q } (m, m3/d) or r and Q`);
   const well: { -readonly [K in keyof ObservationWell]: ObservationWell[K] } = { name: w.name ?? "", geometry, t: w.t, s: w.s };
   if (w.weights) well.weights = w.weights;
+  if (w.sigma) well.sigma = w.sigma;
   if (w.mask) well.mask = w.mask;
   return well;
 });
+
+/** The uncertainty and validity options of a fit with their string choices narrowed to the library's types. */
+function uncertaintyOptions(o: { correlation?: string; profile?: string; cooperJacob?: { uMax?: number; outside?: string } }): { correlation: FitOptions["correlation"]; profile: FitOptions["profile"]; cooperJacob: FitOptions["cooperJacob"] } {
+  return {
+    correlation: o.correlation as FitOptions["correlation"],
+    profile: o.profile as FitOptions["profile"],
+    cooperJacob: o.cooperJacob as FitOptions["cooperJacob"],
+  };
+}
 
 const fitOptionsArg = refine(
   recordArg({
@@ -255,9 +266,14 @@ const fitOptionsArg = refine(
     gtol: optional(positive),
     maxEvaluations: optional(numberArg({ min: 1, max: 100000, integer: true })),
     correlationWarning: optional(numberArg({ min: 0, max: 1, exclusiveMin: true })),
+    measurementSd: optional(positive),
+    correlation: optional(stringArg(["auto", "independent", "ar1"])),
+    profile: optional(stringArg(["auto", "always", "never"])),
+    independenceLevel: optional(numberArg({ min: 0, max: 0.5, exclusiveMin: true })),
+    cooperJacob: optional(recordArg({ uMax: optional(positive), outside: optional(stringArg(["exclude", "warn"])) })),
   }),
-  "fit options { model, wells, start?, fixed?, bounds?, jacobian?, ftol?, xtol?, gtol?, maxEvaluations?, correlationWarning? }",
-  (o): FitOptions => ({ ...o, jacobian: o.jacobian as FitOptions["jacobian"] }),
+  "fit options { model, wells, start?, fixed?, bounds?, jacobian?, ftol?, xtol?, gtol?, maxEvaluations?, correlationWarning?, measurementSd?, correlation?, profile?, independenceLevel?, cooperJacob? }",
+  (o): FitOptions => ({ ...o, jacobian: o.jacobian as FitOptions["jacobian"], ...uncertaintyOptions(o) }),
 );
 
 const rateStepsArg = recordArg({ unit: stringArg(), steps: arrayOf(recordArg({ start: finite, rate: finite }), 1) });
@@ -455,6 +471,9 @@ const forecastableFitArg: Validator<ForecastableFit> = pickArg({
   parameters: arrayOf(pickArg({ name: stringArg(), estimate: finite }), 1),
   freeParameters: stringsArg(),
   covariance: arrayOf(numbersArg({ allowNonFinite: true }, 0)),
+  dof: optional(anyNumber),
+  residualStandardError: optional(anyNumber),
+  uncertainty: optional(pickArg({ dof: anyNumber, scatter: anyNumber })),
 });
 
 /** A fit result as plain data, with the fields a model comparison reads. */
@@ -468,6 +487,7 @@ const comparableFitArg: Validator<ComparableFit> = pickArg({
   rmse: nonNegative,
   converged: booleanArg,
   residuals: arrayOf(pickArg({ name: stringArg(), observed: samples }), 1),
+  diagnostics: optional(pickArg({ independent: booleanArg, lag1Autocorrelation: oneOf(nullArg, anyNumber) })),
 });
 
 const pumpingStepsArg = arrayOf(recordArg({ start: finite, rate: finite }), 1);
@@ -555,9 +575,14 @@ const fitSeriesArg = refine(
     gtol: optional(positive),
     maxEvaluations: optional(numberArg({ min: 1, max: 100000, integer: true })),
     correlationWarning: optional(numberArg({ min: 0, max: 1, exclusiveMin: true })),
+    measurementSd: optional(oneOf(positive, quantityArg)),
+    correlation: optional(stringArg(["auto", "independent", "ar1"])),
+    profile: optional(stringArg(["auto", "always", "never"])),
+    independenceLevel: optional(numberArg({ min: 0, max: 0.5, exclusiveMin: true })),
+    cooperJacob: optional(recordArg({ uMax: optional(positive), outside: optional(stringArg(["exclude", "warn"])) })),
   }),
-  "series fit options { model, series, start?, fixed?, bounds?, reportUnits?, lengthUnit?, jacobian?, ftol?, xtol?, gtol?, maxEvaluations?, correlationWarning? }",
-  (o): FitSeriesOptions => ({ ...o, jacobian: o.jacobian as FitSeriesOptions["jacobian"] }),
+  "series fit options { model, series, start?, fixed?, bounds?, reportUnits?, lengthUnit?, jacobian?, ftol?, xtol?, gtol?, maxEvaluations?, correlationWarning?, measurementSd?, correlation?, profile?, independenceLevel?, cooperJacob? }",
+  (o): FitSeriesOptions => ({ ...o, jacobian: o.jacobian as FitSeriesOptions["jacobian"], ...uncertaintyOptions(o) }),
 );
 
 const forecastAtArg = recordArg({

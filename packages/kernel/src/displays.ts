@@ -113,8 +113,10 @@ function fitTitle(result: Record<string, unknown>): string {
 }
 
 /**
- * The parameter table of a fit: one row per parameter with estimate, standard error and 95 % interval (base
- * units, as aq.fitModel returns them), then one row each for RMSE (m), AIC and BIC when the result has them.
+ * The parameter table of a fit: one row per parameter with estimate, standard error, 95 % interval (base
+ * units, as aq.fitModel returns them) and which interval it is, then one row each for RMSE (m), AIC and BIC when
+ * the result has them, the residual checks (Durbin-Watson d and its p-value, lag-1 autocorrelation) and the statement of which
+ * intervals are shown. A result with errors gets "NOT RELIABLE" in its title and one row per error first.
  * Reads `result.parameters`: the FitResult shape `[{ name, label?, unit, estimate, standardError, ci95: [low,
  * high] | null, fixed? }]`, or the older spellings `value`, `se`, `interval95`, or a record keyed by name.
  * A fixed parameter is named "NAME (fixed)" and has no standard error or interval. When a parameter ran to a
@@ -144,6 +146,7 @@ export function fitTableOutput(result: unknown, options: unknown = {}): TableOut
       lo,
       hi,
       cell(pick(p, "unit") ?? ""),
+      typeof p.ci95Method === "string" ? p.ci95Method : null,
     ];
   });
   const r = result as Record<string, unknown>;
@@ -153,16 +156,41 @@ export function fitTableOutput(result: unknown, options: unknown = {}): TableOut
     ["BIC", r.bic, ""],
   ];
   for (const [name, value, unit] of summary) {
-    if (value !== undefined) rows.push([name, statistic(value), null, null, null, unit]);
+    if (value !== undefined) rows.push([name, statistic(value), null, null, null, unit, null]);
   }
-  const columns = [{ name: "parameter" }, { name: "estimate" }, { name: "standard error" }, { name: "95 % low" }, { name: "95 % high" }, { name: "unit" }];
+  const diagnostics = isRecord(r.diagnostics) ? r.diagnostics : undefined;
+  if (diagnostics && isRecord(diagnostics.durbinWatson)) {
+    const dw = diagnostics.durbinWatson;
+    rows.push(["Durbin-Watson d", statistic(dw.statistic), null, null, null, "", null]);
+    rows.push(["Durbin-Watson p-value", statistic(dw.pValue), null, null, null, "", null]);
+    rows.push(["lag-1 autocorrelation", statistic(diagnostics.lag1Autocorrelation), null, null, null, "", diagnostics.independent === false ? "not independent" : null]);
+  }
+  const uncertainty = isRecord(r.uncertainty) ? r.uncertainty : undefined;
+  if (uncertainty && typeof uncertainty.statement === "string") rows.push(["intervals", uncertainty.statement, null, null, null, "", null]);
+  const columns = [
+    { name: "parameter" },
+    { name: "estimate" },
+    { name: "standard error" },
+    { name: "95 % low" },
+    { name: "95 % high" },
+    { name: "unit" },
+    { name: "interval" },
+  ];
   // A note column only when some parameter needs one, so that tables of well-determined fits keep their shape.
   if (notes.some((n) => n !== null)) {
     columns.push({ name: "note" });
     rows.forEach((row, i) => row.push(notes[i] ?? null));
   }
+  const errors = Array.isArray(r.errors) ? r.errors.filter((e): e is string => typeof e === "string") : [];
+  rows.unshift(...errors.map((e): Cell[] => ["ERROR", e, null, null, null, "", null, ...(columns.length > 7 ? [null] : [])]));
   const opts = isRecord(options) ? options : {};
-  return { type: "table", title: typeof opts.title === "string" ? opts.title : fitTitle(r), columns, rows };
+  const title = typeof opts.title === "string" ? opts.title : fitTitle(r);
+  return {
+    type: "table",
+    title: errors.length > 0 ? `NOT RELIABLE (${errors.length} error${errors.length === 1 ? "" : "s"}): ${title}` : title,
+    columns,
+    rows,
+  };
 }
 
 /**

@@ -225,23 +225,45 @@ describe("diagnostics and corrections called from a cell", () => {
 });
 
 describe("show.fit on a real fit result", () => {
-  it("tabulates estimate, standard error and 95 % interval per parameter, then RMSE, AIC and BIC", async () => {
+  it("tabulates estimate, standard error, 95 % interval and its kind per parameter, then RMSE, AIC, BIC, the residual checks and the interval statement", async () => {
     const r = await kernel.runDocument(makeDoc([...setup, "show.fit(aq.fitModel({ model: 'theis', wells: [base1, base2] }))"]));
     const fit = fitModel({ model: getModel("theis"), wells });
     const [T, S] = fit.parameters;
+    const dw = fit.diagnostics.durbinWatson!;
     expect(r.outputs.c4).toEqual([
       {
         type: "table",
-        title: "Fitted parameters: Theis (1935) confined aquifer",
-        columns: [{ name: "parameter" }, { name: "estimate" }, { name: "standard error" }, { name: "95 % low" }, { name: "95 % high" }, { name: "unit" }],
+        title: fit.errors.length === 0 ? "Fitted parameters: Theis (1935) confined aquifer" : expect.stringMatching(/^NOT RELIABLE/),
+        columns: [
+          { name: "parameter" },
+          { name: "estimate" },
+          { name: "standard error" },
+          { name: "95 % low" },
+          { name: "95 % high" },
+          { name: "unit" },
+          { name: "interval" },
+        ],
         rows: [
-          ["T (transmissivity)", T!.estimate, T!.standardError, T!.ci95![0], T!.ci95![1], "m2/d"],
-          ["S (storativity)", S!.estimate, S!.standardError, S!.ci95![0], S!.ci95![1], "1"],
-          ["RMSE", fit.rmse, null, null, null, "m"],
-          ["AIC", fit.aic, null, null, null, ""],
-          ["BIC", fit.bic, null, null, null, ""],
+          ...fit.errors.map((e) => ["ERROR", e, null, null, null, "", null]),
+          ["T (transmissivity)", T!.estimate, T!.standardError, T!.ci95![0], T!.ci95![1], "m2/d", T!.ci95Method],
+          ["S (storativity)", S!.estimate, S!.standardError, S!.ci95![0], S!.ci95![1], "1", S!.ci95Method],
+          ["RMSE", fit.rmse, null, null, null, "m", null],
+          ["AIC", fit.aic, null, null, null, "", null],
+          ["BIC", fit.bic, null, null, null, "", null],
+          ["Durbin-Watson d", dw.statistic, null, null, null, "", null],
+          ["Durbin-Watson p-value", dw.pValue, null, null, null, "", null],
+          ["lag-1 autocorrelation", fit.diagnostics.lag1Autocorrelation, null, null, null, "", fit.diagnostics.independent ? null : "not independent"],
+          ["intervals", fit.uncertainty.statement, null, null, null, "", null],
         ],
       },
     ]);
+  });
+
+  it("puts NOT RELIABLE in the title and each error in its own first row when the fit has errors", async () => {
+    const r = await kernel.runDocument(makeDoc(["show.fit(aq.fitModel({ model: 'theis', wells: [{ name: 'Z', r: 30, Q: 500, t: [0.01, 0.02, 0.05, 0.1, 0.2, 0.5, 1, 2, 5, 10], s: [0, 0, 0, 0, 0, 0, 0, 0, 0, 0] }] }))"]));
+    const table = r.outputs.c1![0] as { title: string; rows: unknown[][] };
+    expect(table.title).toMatch(/^NOT RELIABLE \(\d+ errors?\): Fitted parameters: Theis/);
+    expect(table.rows[0]![0]).toBe("ERROR");
+    expect(String(table.rows[0]![1])).toContain('Well "Z": all 10 drawdowns are 0');
   });
 });

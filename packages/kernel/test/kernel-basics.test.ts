@@ -98,7 +98,7 @@ describe("running cells", () => {
     expect(r.outputs.c2).toEqual([
       { type: "table", title: "obs", columns: [{ name: "t", unit: "min" }, { name: "s", unit: "m" }], rows: [[1, 0.2], [2, 0.35]] },
     ]);
-    expect(r.outputs.c3![0]).toMatchObject({ type: "table", title: "Fitted parameters: Theis", rows: [["T", 150, 5, 140, 160, "m2/d"]] });
+    expect(r.outputs.c3![0]).toMatchObject({ type: "table", title: "Fitted parameters: Theis", rows: [["T", 150, 5, 140, 160, "m2/d", null]] });
   });
 });
 

@@ -18,7 +18,7 @@ function fit(B: { estimate: number; standardError: number | null; ci95: [number,
 describe("show.fit notes", () => {
   it("say in words that a parameter ran to its bound, with what the model says that bound means", () => {
     const table = fitTableOutput(fit({ estimate: 1e6, standardError: 5.7e9, ci95: [0, Infinity], atBound: "upper" }));
-    expect(table.columns.map((c) => c.name)).toEqual(["parameter", "estimate", "standard error", "95 % low", "95 % high", "unit", "note"]);
+    expect(table.columns.map((c) => c.name)).toEqual(["parameter", "estimate", "standard error", "95 % low", "95 % high", "unit", "interval", "note"]);
     expect(table.rows[1]).toEqual([
       "B (leakage factor)",
       1e6,
@@ -26,15 +26,16 @@ describe("show.fit notes", () => {
       0,
       null,
       "m",
+      null,
       "at the upper bound of its fitting range: the data do not constrain B; leakage not detected: within this record the drawdown shows no leakage through the confining layer",
     ]);
-    expect(table.rows[0]![6]).toBeNull();
+    expect(table.rows[0]![7]).toBeNull();
   });
 
   it("name a parameter without a standard error or with one as large as its estimate, and add no column otherwise", () => {
-    expect(fitTableOutput(fit({ estimate: 900, standardError: null, ci95: null, atBound: null })).rows[1]![6]).toBe("not identifiable from these data: no standard error");
-    expect(fitTableOutput(fit({ estimate: 900, standardError: 950, ci95: [10, 9000], atBound: null })).rows[1]![6]).toBe("poorly constrained: the standard error is as large as the estimate");
-    expect(fitTableOutput(fit({ estimate: 900, standardError: 3, ci95: [894, 906], atBound: null })).columns).toHaveLength(6);
+    expect(fitTableOutput(fit({ estimate: 900, standardError: null, ci95: null, atBound: null })).rows[1]![7]).toBe("not identifiable from these data: no standard error");
+    expect(fitTableOutput(fit({ estimate: 900, standardError: 950, ci95: [10, 9000], atBound: null })).rows[1]![7]).toBe("poorly constrained: the standard error is as large as the estimate");
+    expect(fitTableOutput(fit({ estimate: 900, standardError: 3, ci95: [894, 906], atBound: null })).columns).toHaveLength(7);
   });
 });
 

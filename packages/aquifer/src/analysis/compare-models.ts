@@ -15,6 +15,8 @@ import { convertAt } from "./unit-values.js";
 /** The parts of a fit result a comparison reads (a FitResult has them all). */
 export type ComparableFit = Pick<FitResult, "modelId" | "n" | "p" | "aic" | "bic" | "aicc" | "rmse" | "converged"> & {
   readonly residuals: readonly { readonly name: string; readonly observed: ArrayLike<number> }[];
+  /** The fit's residual checks; when a fit's residuals are not independent the ranking is flagged as unreliable. */
+  readonly diagnostics?: { readonly independent: boolean; readonly lag1Autocorrelation: number | null };
 };
 
 /** Options of {@link compareModels}. */
@@ -56,6 +58,11 @@ export interface ModelComparison {
   readonly lengthUnit: string;
   /** What the ranking does and does not say. */
   readonly caution: string;
+  /**
+   * False when the residuals of any fit are serially correlated (its Durbin-Watson test rejects independence):
+   * the criteria assume independent errors and then overstate the evidence, so ΔAIC and the weights are too large.
+   */
+  readonly rankingReliable: boolean;
   readonly notes: string[];
 }
 
@@ -106,7 +113,8 @@ function checkSameData(fits: readonly ComparableFit[], names: readonly string[])
  * Ranks fits of different models to the same data by AIC (smallest first) with ΔAIC and Akaike weights
  * w_i = exp(−Δ_i/2)/Σ exp(−Δ_j/2) (Burnham and Anderson 2002), the same for BIC and, when every fit has one, AICc,
  * and the RMSE in `lengthUnit`. The ranking is statistical evidence on these data, not a verdict on the conceptual
- * model (stated in `caution`).
+ * model (stated in `caution`). When a fit's residual diagnostics show serial correlation, `rankingReliable` is false
+ * and a note says why the criteria then overstate the evidence.
  * @throws AnalysisInputError for no fits, fits to different data, or non-finite criteria; UnitError for a
  *   lengthUnit that is not a length.
  */
@@ -159,12 +167,25 @@ export function compareModels(fits: readonly ComparableFit[], options: CompareMo
   if (allAicc && fits.some((f) => n0 / (f.p + 1) < 40)) {
     notes.push("n/k < 40 for at least one model: AICc is the better-behaved criterion for such small samples (Burnham and Anderson 2002, section 2.4, from memory).");
   }
+  const correlated = fits
+    .map((f, i) => ({ f, name: names[i]! }))
+    .filter(({ f }) => f.diagnostics && !f.diagnostics.independent)
+    .map(({ f, name }) => `${name} (lag-1 autocorrelation ${f.diagnostics!.lag1Autocorrelation === null ? "n/a" : f.diagnostics!.lag1Autocorrelation.toFixed(2)})`);
+  if (correlated.length > 0) {
+    notes.push(
+      `The ranking is unreliable: the residuals of ${correlated.join(", ")} are serially correlated, while AIC, BIC and their weights assume ` +
+        "independent errors. With correlated errors the effective number of readings is smaller than n, so the criteria overstate the " +
+        "evidence: differences in AIC are too large and the weights too close to 0 and 1. Treat the ranking as a hint, and choose with the " +
+        "residual plots, the diagnostic plots and the site's geology.",
+    );
+  }
   const unconverged = rows.filter((r) => !r.converged).map((r) => r.name);
   if (unconverged.length > 0) notes.push(`Not converged: ${unconverged.join(", ")}; their criteria may be too high, so their rank may be too low.`);
   return {
     criterion: "AIC",
     rows,
     lengthUnit,
+    rankingReliable: correlated.length === 0,
     caution:
       "This ranking is statistical evidence about how well each model fits these data for its number of parameters; it is not a verdict on the " +
       "conceptual model. Check each model's assumptions against the site's geology, the test's duration and the diagnostic plots before choosing one.",

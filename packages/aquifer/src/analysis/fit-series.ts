@@ -5,7 +5,7 @@
  * standard errors and 95 % intervals are converted back with the units module; no factor is written here.
  */
 import { createObservationSeries, toBaseUnits, type ObservationSeries, type SeriesInBaseUnits, type ValueWithUnit } from "../data/index.js";
-import { fitModel, type FitOptions, type FitResult } from "../fit/index.js";
+import { fitModel, type FitOptions, type FitParameter, type FitResult } from "../fit/index.js";
 import { getModel, modelSpecOf, type DrawdownModel, type ModelSpec } from "../models/index.js";
 import { withRateSchedule, type PumpingStep } from "../superposition/index.js";
 import { AnalysisInputError } from "./errors.js";
@@ -43,6 +43,16 @@ export interface FitSeriesOptions {
   readonly gtol?: number;
   readonly maxEvaluations?: number;
   readonly correlationWarning?: number;
+  /**
+   * Known standard deviation of every reading: a number in the first series' length unit, or { value, unit }.
+   * The weights become absolute and a chi-square test checks the fit (see FitOptions.measurementSd).
+   */
+  readonly measurementSd?: NumberOrQuantity;
+  readonly correlation?: FitOptions["correlation"];
+  readonly profile?: FitOptions["profile"];
+  readonly independenceLevel?: number;
+  /** For the cooper-jacob model: the u limit and what to do with readings beyond it. */
+  readonly cooperJacob?: FitOptions["cooperJacob"];
 }
 
 /** One row of a parameter table in report units. */
@@ -58,6 +68,8 @@ export interface ParameterTableRow {
   readonly high95: number | null;
   readonly unit: string;
   readonly fixed: boolean;
+  /** Which interval low95..high95 is (FitParameter.ci95Method). */
+  readonly interval: FitParameter["ci95Method"];
 }
 
 /** The fit in base units (as fitModel returns it) with the table and RMSE in report units. */
@@ -144,6 +156,13 @@ function checkReportUnits(model: DrawdownModel, reportUnits: FitSeriesOptions["r
   return { units, ignored };
 }
 
+/** A known measurement standard deviation in m: a number in `lengthUnit`, or a length with its unit. */
+function measurementSdInMetres(value: NumberOrQuantity | undefined, lengthUnit: string): number | undefined {
+  if (value === undefined) return undefined;
+  if (typeof value === "number") return convertAt(WHERE, "measurementSd", value, lengthUnit, "m");
+  return convertAt(WHERE, "measurementSd", value.value, value.unit, "m");
+}
+
 /** The fit's parameters converted with the units module into the report units. */
 export function parameterTable(fit: FitResult, units: Readonly<Record<string, string>>): ParameterTableRow[] {
   return fit.parameters.map((p) => {
@@ -158,6 +177,7 @@ export function parameterTable(fit: FitResult, units: Readonly<Record<string, st
       high95: p.ci95 === null ? null : to(p.ci95[1]),
       unit,
       fixed: p.fixed,
+      interval: p.ci95Method,
     };
   });
 }
@@ -197,6 +217,11 @@ export function fitSeries(options: FitSeriesOptions): SeriesFitResult {
     gtol: options.gtol,
     maxEvaluations: options.maxEvaluations,
     correlationWarning: options.correlationWarning,
+    measurementSd: measurementSdInMetres(options.measurementSd, options.series[0]!.lengthUnit),
+    correlation: options.correlation,
+    profile: options.profile,
+    independenceLevel: options.independenceLevel,
+    cooperJacob: options.cooperJacob,
   });
   const list = base.parameters.map((p) => p.name).join(", ");
   const warnings = ignored.length === 0 ? fit.warnings : [...fit.warnings, `reportUnits names ${ignored.join(", ")}, which model "${base.id}" does not have (${list}); ${ignored.length === 1 ? "it was" : "they were"} not used.`];

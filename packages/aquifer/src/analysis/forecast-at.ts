@@ -21,6 +21,12 @@ export interface ForecastableFit {
   readonly freeParameters: readonly string[];
   /** Covariance of the free parameters, base units. */
   readonly covariance: readonly (readonly number[])[] | readonly ArrayLike<number>[];
+  /** n - p of the fit; with uncertainty.dof it gives the Student t quantile of the bands (normal without either). */
+  readonly dof?: number;
+  /** s = sqrt(SSR/(n - p)), m: the scatter of a prediction band when uncertainty.scatter is absent. */
+  readonly residualStandardError?: number;
+  /** The fit's uncertainty record: degrees of freedom of the intervals in use and the scatter of one reading (m). */
+  readonly uncertainty?: { readonly dof: number; readonly scatter: number };
 }
 
 /** A forecast point at a distance from the pumping well. */
@@ -60,6 +66,9 @@ export interface PointForecastInUnits {
   readonly p05: Float64Array | null;
   readonly p50: Float64Array | null;
   readonly p95: Float64Array | null;
+  /** 5 and 95 % values of the prediction band of one reading, in lengthUnit; null without a scatter or for "none". */
+  readonly prediction05: Float64Array | null;
+  readonly prediction95: Float64Array | null;
   readonly mean: Float64Array | null;
 }
 
@@ -73,6 +82,9 @@ export interface ForecastAtResult {
   readonly uncertainParameters: string[];
   readonly samples: number | null;
   readonly seed: number | null;
+  /** Degrees of freedom behind the bands (Infinity: normal quantiles) and what each band covers. */
+  readonly dof: number;
+  readonly bands: { readonly confidence: string; readonly prediction: string | null; readonly notCovered: string } | null;
   readonly notes: string[];
 }
 
@@ -94,7 +106,8 @@ function forecastModel(fit: ForecastableFit, model: DrawdownModel | ModelSpec | 
 }
 
 /**
- * Estimates and covariance (base units) of a fit as the given-parameters input of forecastDrawdown. The forecasts
+ * Estimates and covariance (base units) of a fit as the given-parameters input of forecastDrawdown, with the
+ * fit's degrees of freedom and residual scatter (m) for Student t confidence and prediction bands. The forecasts
  * then work in the fit's own space: fitModel fits exactly the positive parameters in ln space, which is what
  * forecastDrawdown assumes for given parameters (forecast/parameters.ts), so the numbers are those of { fit }.
  * @throws AnalysisInputError when the fit is of another model or lacks one of the model's parameters.
@@ -110,7 +123,14 @@ export function fitAsGivenParameters(where: string, fit: ForecastableFit, model:
     parameters[d.name] = fp.estimate;
   }
   const matrix = fit.covariance.map((row) => Array.from(row));
-  return { parameters, covariance: { names: [...fit.freeParameters], matrix } };
+  const dof = fit.uncertainty?.dof ?? fit.dof;
+  const scatter = fit.uncertainty?.scatter ?? fit.residualStandardError;
+  return {
+    parameters,
+    covariance: { names: [...fit.freeParameters], matrix },
+    ...(dof !== undefined ? { dof } : {}),
+    ...(scatter !== undefined ? { scatter } : {}),
+  };
 }
 
 /** The rate as pumping steps in base units (d, m3/d), step starts in `timeUnit`. */
@@ -184,11 +204,15 @@ export function forecastAt(options: ForecastAtOptions): ForecastAtResult {
       p05: inUnit(p.p05),
       p50: inUnit(p.p50),
       p95: inUnit(p.p95),
+      prediction05: inUnit(p.prediction05),
+      prediction95: inUnit(p.prediction95),
       mean: inUnit(p.mean),
     })),
     uncertainParameters: result.uncertainParameters,
     samples: result.samples,
     seed: result.seed,
+    dof: result.dof,
+    bands: result.bands,
     notes,
   };
 }

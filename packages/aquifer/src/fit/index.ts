@@ -2,7 +2,12 @@
 export { FitInputError } from "./errors.js";
 export {
   fitModel,
+  type CooperJacobFitOptions,
   type FitOptions,
+  type FitUncertainty,
+  type IntervalMethod,
+  type ProfileChoice,
+  type ResidualCorrelation,
   type FitParameter,
   type FitResult,
   type JacobianMethod,
@@ -22,3 +27,6 @@ export { plausibilityNotes } from "./plausibility.js";
 export { fitSpaceCovariance, informationCriteria, RANK_TOLERANCE, type FitSpaceCovariance } from "./statistics.js";
 export type { StartMethod } from "./start-values.js";
 export { lnBeta, lnGamma, regularizedIncompleteBeta, studentTCdf, studentTQuantile } from "./student-t.js";
+export { chiSquareSurvival, normalCdf, regularizedGammaP, regularizedGammaQ } from "./distributions.js";
+export type { DurbinWatsonTest, ResidualDiagnostics, RunsTest } from "./residual-diagnostics.js";
+export type { ExcludedReading } from "./validity-checks.js";

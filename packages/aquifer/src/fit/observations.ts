@@ -16,8 +16,17 @@ export interface ObservationWell {
   readonly t: ArrayLike<number>;
   /** Drawdowns, m (positive downwards). */
   readonly s: ArrayLike<number>;
-  /** Optional weights w_i >= 0 multiplying the squared residuals (e.g. 1/sigma_i^2 with sigma_i in m). */
+  /**
+   * Optional relative weights w_i >= 0 multiplying the squared residuals: only their ratios matter, the scale of
+   * the errors comes from the residuals (s^2 = SSR/(n - p)). A weight of 0 leaves the point out.
+   */
   readonly weights?: ArrayLike<number>;
+  /**
+   * Optional known measurement standard deviations sigma_i > 0 (m): absolute weights 1/sigma_i^2. Then the
+   * uncertainties rest on these sigma_i, not on the scatter, and a chi-square test checks the fit against them.
+   * Give either weights or sigma, not both.
+   */
+  readonly sigma?: ArrayLike<number>;
   /** Optional inclusion flags: mask[i] true keeps point i in the fit, false leaves it out. */
   readonly mask?: ArrayLike<boolean>;
 }
@@ -32,16 +41,28 @@ export interface PackedWell {
   readonly index: Int32Array;
   readonly t: Float64Array;
   readonly s: Float64Array;
-  /** sqrt of the weights (1 when none were given). */
+  /** sqrt of the weights (1 when none were given; 1/sigma_i for known standard deviations). */
   readonly sqrtWeights: Float64Array;
+  /** True when the weights are absolute (known standard deviations), false for relative weights. */
+  readonly absolute: boolean;
 }
 
 function location(well: string, i: number): string {
   return `well "${well}", point ${i}`;
 }
 
-/** Validates the wells and packs the used points. Throws FitInputError with the well and point at fault. */
-export function packWells(wells: readonly ObservationWell[] | undefined): { wells: PackedWell[]; count: number } {
+/**
+ * Validates the wells and packs the used points. `measurementSd` (m, > 0), when given, is the known standard
+ * deviation of every reading of the wells that give neither weights nor sigma. Throws FitInputError with the
+ * well and point at fault, and when known standard deviations and relative weights are mixed.
+ */
+export function packWells(
+  wells: readonly ObservationWell[] | undefined,
+  measurementSd?: number,
+): { wells: PackedWell[]; count: number; absolute: boolean } {
+  if (measurementSd !== undefined && !(Number.isFinite(measurementSd) && measurementSd > 0)) {
+    throw new FitInputError(`fitModel: measurementSd is ${measurementSd} m; give the known standard deviation of a reading as a number > 0 (m).`);
+  }
   if (!wells || wells.length === 0) {
     throw new FitInputError("fitModel: no observation wells given; pass wells: [{ name, geometry: { r, Q }, t, s }].");
   }
@@ -67,6 +88,14 @@ export function packWells(wells: readonly ObservationWell[] | undefined): { well
     const length = w.t.length;
     if (w.weights && w.weights.length !== length) {
       throw new FitInputError(`fitModel: well "${name}" has ${w.weights.length} weights for ${length} points; pass one weight per point.`);
+    }
+    if (w.sigma && w.weights) {
+      throw new FitInputError(
+        `fitModel: well "${name}" gives both weights (relative) and sigma (known standard deviations); give one of them.`,
+      );
+    }
+    if (w.sigma && w.sigma.length !== length) {
+      throw new FitInputError(`fitModel: well "${name}" has ${w.sigma.length} standard deviations for ${length} points; pass one sigma per point.`);
     }
     if (w.mask && w.mask.length !== length) {
       throw new FitInputError(`fitModel: well "${name}" has ${w.mask.length} mask flags for ${length} points; pass one flag per point.`);
@@ -94,23 +123,39 @@ export function packWells(wells: readonly ObservationWell[] | undefined): { well
         }
         if (wt === 0) continue;
       }
+      if (w.sigma) {
+        const sd = w.sigma[i]!;
+        if (!(Number.isFinite(sd) && sd > 0)) {
+          throw new FitInputError(`fitModel: ${location(name, i)}: sigma is ${sd} m; known standard deviations must be finite and > 0.`);
+        }
+      }
       used.push(i);
     }
     const index = Int32Array.from(used);
     const t = new Float64Array(used.length);
     const s = new Float64Array(used.length);
-    const sqrtWeights = new Float64Array(used.length).fill(1);
+    const absolute = w.sigma !== undefined || (w.weights === undefined && measurementSd !== undefined);
+    const sqrtWeights = new Float64Array(used.length).fill(w.weights || !absolute ? 1 : 1 / measurementSd!);
     used.forEach((i, j) => {
       t[j] = w.t[i]!;
       s[j] = w.s[i]!;
       if (w.weights) sqrtWeights[j] = Math.sqrt(w.weights[i]!);
+      if (w.sigma) sqrtWeights[j] = 1 / w.sigma[i]!;
     });
     const geometry: ObservationGeometry =
       Number.isFinite(x) && Number.isFinite(y) ? { r, Q, x: x!, y: y! } : { r, Q };
-    packed.push({ name, geometry, offset, index, t, s, sqrtWeights });
+    packed.push({ name, geometry, offset, index, t, s, sqrtWeights, absolute });
     offset += used.length;
   });
-  return { wells: packed, count: offset };
+  const absolute = packed.some((w) => w.absolute);
+  if (absolute && packed.some((w) => !w.absolute)) {
+    const relative = packed.filter((w) => !w.absolute).map((w) => `"${w.name}"`).join(", ");
+    throw new FitInputError(
+      `fitModel: some wells give known standard deviations (sigma or measurementSd) and ${relative} relative weights or none; ` +
+        "the uncertainty rests either on known standard deviations or on the scatter, not on both. Give sigma for every well, or for none.",
+    );
+  }
+  return { wells: packed, count: offset, absolute };
 }
 
 /**

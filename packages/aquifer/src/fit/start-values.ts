@@ -51,6 +51,7 @@ function subsample(wells: readonly PackedWell[]): PackedWell[] {
       t: Float64Array.from(pick, (j) => w.t[j]!),
       s: Float64Array.from(pick, (j) => w.s[j]!),
       sqrtWeights: Float64Array.from(pick, (j) => w.sqrtWeights[j]!),
+      absolute: w.absolute,
     };
     offset += m;
     return sub;

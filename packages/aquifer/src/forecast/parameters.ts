@@ -18,6 +18,13 @@ export interface GivenParameters {
   readonly parameters: Readonly<Record<string, number>>;
   /** Covariance in base units (like FitResult.covariance) of the parameters `names`, in that order. */
   readonly covariance?: { readonly names: readonly string[]; readonly matrix: readonly (readonly number[])[] };
+  /**
+   * Degrees of freedom of the covariance (the fit's, for Student t bands); absent or Infinity: normal quantiles,
+   * as for a covariance known exactly.
+   */
+  readonly dof?: number;
+  /** Standard deviation of one reading's error about the model, m (for prediction bands); absent: no prediction band. */
+  readonly scatter?: number;
 }
 
 /** Where the parameters come from: a fit, or given values with an optional covariance. */
@@ -35,6 +42,10 @@ export interface ResolvedParameters {
   readonly theta: Float64Array;
   /** Covariance of theta; null when none was given. */
   readonly covariance: number[][] | null;
+  /** Degrees of freedom of the covariance (Infinity: known exactly, normal quantiles). */
+  readonly dof: number;
+  /** Residual scatter of one reading, m; null when unknown. */
+  readonly scatter: number | null;
 }
 
 /** Native vector for fitting-space coordinates theta. */
@@ -56,6 +67,8 @@ export function resolveParameters(where: string, model: DrawdownModel, input: Pa
   let covNames: readonly string[] = [];
   let matrix: readonly (readonly number[])[] | null = null;
   let scales: readonly boolean[] = [];
+  let dof = Infinity;
+  let scatter: number | null = null;
   if ("fit" in input && input.fit) {
     const fit = input.fit;
     // A fit of a superposition wrapper ("theis+schedule", "theis+boundaries", ...) has the base model's parameters.
@@ -72,6 +85,8 @@ export function resolveParameters(where: string, model: DrawdownModel, input: Pa
     covNames = fit.freeParameters;
     matrix = fit.covariance;
     scales = covNames.map((name) => fit.parameters.find((q) => q.name === name)?.scale === "ln");
+    dof = fit.uncertainty?.dof ?? fit.dof;
+    scatter = fit.uncertainty?.scatter ?? fit.residualStandardError;
   } else {
     const given = input as GivenParameters;
     if (!given.parameters) throw new ForecastInputError(`${where}: give either fit (a FitResult) or parameters { ${names.join(", ")} } in base units.`);
@@ -82,6 +97,14 @@ export function resolveParameters(where: string, model: DrawdownModel, input: Pa
     });
     for (const key of Object.keys(given.parameters)) {
       if (!names.includes(key)) throw new ForecastInputError(`${where}: parameters names "${key}", which model "${model.id}" does not have (${names.join(", ")}).`);
+    }
+    if (given.dof !== undefined) {
+      if (!(given.dof > 0)) throw new ForecastInputError(`${where}: dof is ${given.dof}; give the degrees of freedom of the covariance as a number > 0 (Infinity for a known covariance).`);
+      dof = given.dof;
+    }
+    if (given.scatter !== undefined) {
+      if (!(Number.isFinite(given.scatter) && given.scatter >= 0)) throw new ForecastInputError(`${where}: scatter is ${given.scatter} m; give the residual standard deviation as a finite number >= 0.`);
+      scatter = given.scatter;
     }
     if (given.covariance) {
       covNames = given.covariance.names;
@@ -126,7 +149,7 @@ export function resolveParameters(where: string, model: DrawdownModel, input: Pa
       covariance.push(row);
     }
   }
-  return { values, free, logScale: scales, theta, covariance };
+  return { values, free, logScale: scales, theta, covariance, dof, scatter };
 }
 
 /** Native vector from a record by name or an array in descriptor order, checked against the model. */

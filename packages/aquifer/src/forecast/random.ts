@@ -92,3 +92,4 @@ export function seededRandom(seed: number): RandomStream {
   };
   return { nextUint32, nextUniform, nextNormal };
 }
+

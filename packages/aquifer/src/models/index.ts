@@ -59,6 +59,7 @@ export {
   type PapadopulosCooperModel,
   type WellboreGeometry,
 } from "./papadopulos-cooper.js";
+export { wellboreStorageTime, type WellboreStorageTime } from "./wellbore-storage-time.js";
 export {
   PARTIAL_PENETRATION_TOLERANCE,
   anisotropyParameter,
@@ -76,6 +77,8 @@ export {
   neumanModel,
   neumanTypeCurves,
   specificYieldParameter,
+  NEUMAN_DEHOOG_BELOW,
+  NEUMAN_THEIS_BELOW,
   NEUMAN_SERIES_TOLERANCE,
   NEUMAN_STEHFEST_TERMS,
   type NeumanModel,
@@ -87,6 +90,7 @@ export {
   hantushAquitardStorageModel,
   hantushStorageDimensionless,
   hantushStorageTypeCurves,
+  LEAKY_STORAGE_DEHOOG_BELOW,
   LEAKY_STORAGE_STEHFEST_TERMS,
   type HantushStorageTypeCurve,
   type HantushStorageTypeCurveFamily,

@@ -44,6 +44,11 @@ export interface ModelDescriptor {
   readonly cautions: readonly string[];
   /** Parameters in the order used by parameter vectors. */
   readonly parameters: readonly ParameterDescriptor[];
+  /**
+   * Optional order constraints: each pair [a, b] of parameter names requires a < b (e.g. Neuman's elastic
+   * storativity below the specific yield). Fitting enforces them.
+   */
+  readonly orderedParameters?: readonly (readonly [string, string])[];
 }
 
 /** What a model needs to know about one observation point, in base units. */

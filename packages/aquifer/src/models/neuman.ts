@@ -8,7 +8,8 @@
  *   w_n = 4 sin^2 eps_n / (eps_n (2 eps_n + sin 2 eps_n))   (p conjugate to t_s).
  * Sources: Neuman, S.P. (1974), Water Resources Research 10(2), 303-312; the Laplace form as in Moench, A.F.
  * (1997), Water Resources Research 33(6), 1397-1407, for fully penetrating wells and instantaneous drainage.
- * The series and its truncation are in neuman-laplace.ts; the inversion is Stehfest's (neuman-stehfest.ts).
+ * The series and its truncation are in neuman-laplace.ts; the inversion is Stehfest's (neuman-stehfest.ts) from
+ * t_s = 0.15 on and de Hoog's at complex p below (early-time-laplace.ts), where Stehfest's error grows above 1e-3.
  *
  * Geometry: beta depends on the saturated thickness b, which is not part of ObservationGeometry and does not
  * pass through the fitting engine's geometry records; so b is bound when the model is made:
@@ -19,12 +20,39 @@ import type { DrawdownModel, ObservationGeometry, ParameterDescriptor } from "./
 import { neumanTransform, neumanTransformValue, newNeumanTransform } from "./neuman-laplace.js";
 import { stehfestWithDerivatives, type TransformWithDerivatives } from "./neuman-stehfest.js";
 import { transmissivityParameter } from "./parameters.js";
-import { stehfestCoefficients } from "../numerics/index.js";
+import { deHoog, stehfestCoefficients } from "../numerics/index.js";
+import { expint1 } from "../special/index.js";
+import { neumanTransformComplex } from "./early-time-laplace.js";
 
 const FOUR_PI = 4 * Math.PI;
 
 /** Stehfest weights used by the model (even; 12 balances truncation and round-off in double precision). */
 export const NEUMAN_STEHFEST_TERMS = 12;
+/**
+ * Below this t_s the drawdown is inverted by de Hoog's method with complex roots (early-time-laplace.ts):
+ * there Stehfest's error exceeds 1e-3 (1.7e-3 to 2.9e-3 at t_s = 0.1, 2.4e-2 at 0.05, against mpmath); from it on
+ * Stehfest stays within 7e-4 (measured for sigma 1e-3 to 0.5, beta 0.01 to 5; within 2.2e-4 from t_s = 0.3).
+ */
+export const NEUMAN_DEHOOG_BELOW = 0.15;
+/** Step in ln of the argument for the forward differences of the early-time sensitivities (error about 1e-5 relative). */
+const EARLY_STEP = 1e-5;
+
+/**
+ * de Hoog settings at early time: order 12 (25 transform values) and tolerance 1e-9 keep the error within 2e-7 of
+ * mpmath from t_s = 0.05 on (1.4e-10 with the default order 20, at three times the cost).
+ */
+const EARLY_INVERSION = { order: 12, tolerance: 1e-9 } as const;
+/**
+ * Below this t_s (u = 1/(4 t_s) > 25, s_D < 6e-13) the early Theis branch W(u) is returned: it differs from
+ * Neuman's drawdown there by less than 1e-13 in s_D, and the series would need thousands of complex roots.
+ */
+export const NEUMAN_THEIS_BELOW = 0.01;
+
+function earlyTime(ts: number, sigma: number, beta: number): number {
+  if (ts < NEUMAN_THEIS_BELOW) return expint1(1 / (4 * ts));
+  return deHoog((p) => neumanTransformComplex(p, sigma, beta), ts, EARLY_INVERSION);
+}
+
 /** Relative truncation tolerance of the root series at each Laplace variable. */
 export const NEUMAN_SERIES_TOLERANCE = 1e-10;
 
@@ -72,10 +100,23 @@ export interface NeumanModel extends DrawdownModel {
 /**
  * Dimensionless Neuman drawdown s_D = 4 pi T s / Q at dimensionless time t_s = T t / (S r^2) (> 0) for
  * sigma = S/Sy > 0 and beta > 0. With `sensitivities` (length 4) also writes [s_D, t_s ds_D/dt_s,
- * ds_D/dsigma, ds_D/dbeta]. Accuracy: see docs/methods.md (Laplace-domain models) (Stehfest N = 12; about 1e-4
- * relative for t_s >= 1, worse at the earliest times where s_D is small). Source: Neuman (1974) as above.
+ * ds_D/dsigma, ds_D/dbeta]. Inversion: Stehfest N = 12 from t_s = 0.15 on (within 7e-4 of mpmath), de Hoog with
+ * complex roots from 0.01 to 0.15 (within 2e-7 of mpmath from t_s = 0.05 on; sensitivities there by forward
+ * differences in ln t_s, ln sigma, ln beta with step 1e-5), and Theis's W(1/(4 t_s)) below 0.01, where s_D < 6e-13.
+ * Accuracy: see docs/methods.md. Source: Neuman (1974) as above.
  */
 export function neumanDimensionless(ts: number, sigma: number, beta: number, sensitivities?: Float64Array): number {
+  if (ts < NEUMAN_DEHOOG_BELOW) {
+    const value = earlyTime(ts, sigma, beta);
+    if (sensitivities) {
+      const up = Math.exp(EARLY_STEP);
+      sensitivities[0] = value;
+      sensitivities[1] = (earlyTime(ts * up, sigma, beta) - value) / EARLY_STEP;
+      sensitivities[2] = (earlyTime(ts, sigma * up, beta) - value) / (EARLY_STEP * sigma);
+      sensitivities[3] = (earlyTime(ts, sigma, beta * up) - value) / (EARLY_STEP * beta);
+    }
+    return value;
+  }
   const weights = STEHFEST_WEIGHTS;
   const a = Math.LN2 / ts;
   if (sensitivities === undefined) {
@@ -139,6 +180,7 @@ export function neumanModel(b: number): NeumanModel {
         "geology and, ideally, several observation distances.",
     ],
     parameters: [transmissivityParameter, elasticStorativityParameter, specificYieldParameter, anisotropyRatioParameter],
+    orderedParameters: [["S", "Sy"]],
     saturatedThickness: b,
 
     drawdown(p: ArrayLike<number>, geometry: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {

@@ -8,6 +8,7 @@ import { cooperJacobLine, type CooperJacobLineResult } from "./cooper-jacob.js";
 import { checkGeometry } from "./checks.js";
 import { ModelInputError } from "./errors.js";
 import type { DrawdownModel, ObservationGeometry } from "./model.js";
+import { neumanStartingValues } from "./neuman-start.js";
 import { getModel, type ModelSpec } from "./registry.js";
 
 /** Starting parameter vector and how it was obtained. */
@@ -148,9 +149,8 @@ function hantushTypeCurveSearch(
  * - hantush-jacob: T, S and B of the best point of a type-curve search over u and r/B (final grid
  *   factor 1.12 in each), since levelling-off makes the late straight line too flat;
  * - thiem: T of the Cooper-Jacob line; R from the drawdown at the latest time, R = r exp(2 pi T s / Q);
- * - neuman: T of the Cooper-Jacob line on the late data and Sy from its S (late data follow Theis with S + Sy),
- *   S = Sy / 100 and Kz/Kr = 0.1 (common practice, no source: elastic storage two orders below Sy, a vertical
- *   conductivity a tenth of the horizontal one);
+ * - neuman: S from the early readings and S + Sy from the late ones (neuman-start.ts), so that the elastic
+ *   storativity and the specific yield start the right way round, and Kz/Kr from a search;
  * - any other model whose parameters begin with T and S (well-bore storage, partial penetration...): T and S
  *   of the Cooper-Jacob line, further parameters at the geometric middle of their bounds.
  * Values outside the descriptor bounds are moved to the nearest bound, with a note.
@@ -165,6 +165,10 @@ export function startingValues(
 ): StartingValues {
   const m = isDrawdownModel(model) ? model : getModel(model);
   checkGeometry(`startingValues for ${m.name}`, geometry);
+  if (m.id === "neuman") {
+    const start = neumanStartingValues(m, geometry, t, s);
+    return { values: start.values.map((v, k) => clamp(m, k, v, start.notes)), notes: start.notes };
+  }
   if (m.id === "hantush-jacob") {
     const g = hantushTypeCurveSearch(t, s, geometry);
     const notes = [
@@ -186,11 +190,6 @@ export function startingValues(
     case "theis":
     case "cooper-jacob":
       return { values: Float64Array.of(T, clamp(m, 1, line.S, notes)), line, notes };
-    case "neuman": {
-      const Sy = clamp(m, 2, line.S, notes);
-      notes.push("Sy from the line's S (late data follow Theis with S + Sy); S = Sy / 100 and KzKr = 0.1 as first guesses (common practice, no source).");
-      return { values: Float64Array.of(T, clamp(m, 1, Sy / 100, notes), Sy, clamp(m, 3, 0.1, notes)), line, notes };
-    }
     case "thiem": {
       const last = line.used[line.used.length - 1]!;
       const R = geometry.r * Math.exp((2 * Math.PI * T * s[last]!) / geometry.Q);

@@ -12,6 +12,8 @@ export {
 } from "./slug-data.js";
 export { fitRecoveryLine, type RecoveryLine } from "./log-linear-recovery.js";
 export {
+  HVORSLEV_MIN_LENGTH_TO_RADIUS,
+  hvorslevShapeFactor,
   hvorslevSlugTest,
   type HvorslevGeometry,
   type SlugConductivityResult,
