@@ -21,12 +21,13 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   const isFinite = Number.isFinite;
   const F64A = Float64Array, TypeErr = TypeError, Err = Error, Sym = Symbol;
   const sliceBuffer = Function.prototype.call.bind(ArrayBuffer.prototype.slice);
-  const sliceF64 = Function.prototype.call.bind(Float64Array.prototype.slice);
   const sliceArray = Function.prototype.call.bind(Array.prototype.slice);
   const push = Function.prototype.call.bind(Array.prototype.push);
   const callFn = Function.prototype.call.bind(Function.prototype.call);
   const indirectEval = eval, construct = Reflect.construct;
   const DISPLAY = Sym("conebook.display");
+  // The CSV texts of the data tables a cell has read, by table index: passed back, one crosses as a reference.
+  const texts = [], TEXT_MIN = config.textReferenceMin;
   const CYCLE_CHECK_DEPTH = 64;
 
   function describe(v) {
@@ -74,7 +75,11 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
         if (v - v === 0 && (v !== 0 || 1 / v > 0)) return v;
         return patch(depth, v !== v ? "NaN" : v === 0 ? "-0" : v > 0 ? "Infinity" : "-Infinity");
       }
-      if (type === "string" || type === "boolean" || v === null) return v;
+      if (type === "string") {
+        if (v.length >= TEXT_MIN) for (let i = 0; i < texts.length; i++) if (texts[i] === v) return patch(depth, "text:" + i);
+        return v;
+      }
+      if (type === "boolean" || v === null) return v;
       if (type === "undefined") return patch(depth, "undefined");
       if (type !== "object") {
         throw new TypeErr(fieldName(where, key) + " is " + describe(v) + "; only numbers, strings, booleans, null, arrays, plain objects and Float64Array can be passed");
@@ -104,7 +109,7 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
         const n = v.length;
         for (let i = 0; i < n; i++) {
           const e = v[i], t = typeof e;
-          if (t === "number" ? e - e === 0 && (e !== 0 || 1 / e > 0) : t === "string" || t === "boolean" || e === null) out[i] = e;
+          if (t === "number" ? e - e === 0 && (e !== 0 || 1 / e > 0) : t === "string" ? e.length < TEXT_MIN : t === "boolean" || e === null) out[i] = e;
           else {
             path[depth] = i;
             out[i] = walk(e, i, depth + 1);
@@ -118,7 +123,7 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
           if (k === "__proto__") throw new TypeErr(fieldName(where, k) + " is a key named \"__proto__\", which cannot be passed; rename it");
           const e = v[k], t = typeof e;
           let w = e;
-          if (!(t === "number" ? e - e === 0 && (e !== 0 || 1 / e > 0) : t === "string" || t === "boolean" || e === null)) {
+          if (!(t === "number" ? e - e === 0 && (e !== 0 || 1 / e > 0) : t === "string" ? e.length < TEXT_MIN : t === "boolean" || e === null)) {
             path[depth] = k;
             w = walk(e, k, depth + 1);
           }
@@ -553,8 +558,9 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     defineProperty(G, "Proxy", { value: SandboxProxy, ...method });
   }
 
-  // A data cell's table: the columns arrive as Float64Array (numeric columns, NaN for an empty field) or as arrays
-  // of field values; the records of rows are built from private copies the first time a cell reads rows.
+  // A data cell's table: numeric columns arrive as Float64Array (NaN for an empty field); a text column, the CSV
+  // text and the private copies the records of rows are built from are asked of the host when first read.
+  const part = host.part;
   function buildRows(columns, values, numeric, n) {
     const rows = [];
     for (let i = 0; i < n; i++) {
@@ -570,31 +576,45 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   function dataProperty(o, k, v) {
     defineProperty(o, k, { value: v, writable: true, enumerable: true, configurable: true });
   }
-  function defineTable(name, wire, csv) {
+  // o[k] as an accessor that computes its value once, on first read, and then becomes a plain data property.
+  function lazyProperty(o, k, compute) {
+    defineProperty(o, k, {
+      get: { [k]() {
+        const v = compute();
+        dataProperty(o, k, v);
+        return v;
+      } }[k],
+      set: { [k](v) { dataProperty(o, k, v); } }[k],
+      enumerable: true,
+      configurable: true,
+    });
+  }
+  function defineTable(name, index, wire) {
     const data = decode(wire);
-    const columns = data.columns, values = data.values, n = data.length;
-    const numeric = [], own = [];
+    const columns = data.columns, numericValues = data.numeric, n = data.length;
+    const numeric = [];
     const byColumn = {};
+    const column = (c) => decode(part(index, c));
     for (let c = 0; c < columns.length; c++) {
-      const isNumeric = values[c] instanceof F64A;
+      const isNumeric = numericValues[c] !== null;
       push(numeric, isNumeric);
-      push(own, isNumeric ? sliceF64(values[c]) : sliceArray(values[c]));
-      setOwn(byColumn, columns[c], values[c]);
+      if (isNumeric) setOwn(byColumn, columns[c], numericValues[c]);
+      else if (columns[c] === "__proto__") setOwn(byColumn, columns[c], column(c));
+      else lazyProperty(byColumn, columns[c], () => column(c));
     }
     const table = {};
     dataProperty(table, "name", name);
     dataProperty(table, "columns", sliceArray(columns));
-    defineProperty(table, "rows", {
-      get: function rows() {
-        const r = buildRows(columns, own, numeric, n);
-        dataProperty(table, "rows", r);
-        return r;
-      },
-      set: function rows(r) { dataProperty(table, "rows", r); },
-      enumerable: true,
-      configurable: true,
+    lazyProperty(table, "rows", () => {
+      const own = [];
+      for (let c = 0; c < columns.length; c++) push(own, column(c));
+      return buildRows(columns, own, numeric, n);
     });
-    dataProperty(table, "csv", csv);
+    lazyProperty(table, "csv", () => {
+      const text = part(index, -1);
+      texts[index] = text;
+      return text;
+    });
     dataProperty(table, "byColumn", byColumn);
     defineProperty(G, name, { value: table, writable: false, enumerable: true, configurable: false });
   }

@@ -25,7 +25,8 @@ export { STACK_LIMIT_BYTES, Sandbox, type SandboxHooks, type SandboxOptions } fr
 export { AQUIFER_API, BRIDGE_API, CHART_API, arg, fn, type BridgeArgument, type BridgeEntry } from "./bridge-api.js";
 export { ArgumentError } from "./validators.js";
 export { stripTypes, CellSyntaxError, type StrippedCell } from "./strip-types.js";
-export { parseDataTable, DataCellError, type DataTable, type ReadFile } from "./data-cells.js";
+export { parseDataTable, DataCellError, type DataTable, type HashedBytes, type ReadFile } from "./data-cells.js";
+export { platformSha256, type Sha256 } from "./digest.js";
 export { recordedControlValues, recordedRunSettings, type ControlRecord, type RecordedControl } from "./controls.js";
 export * from "./charts/index.js";
 export { DEFAULT_RTOL, checkDataPins, compareOutputs, numbersAgree, recordedOutputs, relativeDifference, type CompareOptions, type DifferenceKind, type OutputDifference, type PinCheck } from "./verify.js";
