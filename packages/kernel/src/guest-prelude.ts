@@ -52,8 +52,82 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   // wire.ts). The walk below checks that only plain data is passed and copies it into a tree that the native
   // JSON.stringify writes without a replacer (a replacer costs a guest function call per value). Numbers,
   // strings, booleans and null inside arrays and objects are copied inline, without a call.
+  // Arrays of records the host sent in column form (see wire.ts) that no cell has read yet: owner object -> { key:
+  // { getter, spec, read } }. Passed back unread, one crosses in the same column form.
+  const lazyTables = new WeakMap();
+  const lazyGet = Function.prototype.call.bind(WeakMap.prototype.get);
+  const lazySet = Function.prototype.call.bind(WeakMap.prototype.set);
+  const ownDescriptor = Object.getOwnPropertyDescriptor, nullObject = Object.create;
+  function materialize(spec) {
+    const n = spec.n, keys = spec.keys, cols = spec.cols, values = [];
+    for (let c = 0; c < cols.length; c++) {
+      const col = cols[c];
+      if (col.f !== undefined) {
+        values[c] = col.f;
+        continue;
+      }
+      const out = [], runs = col.runs, strings = col.s;
+      let i = 0;
+      for (let r = 0; r < runs.length; r += 2) {
+        const text = strings[runs[r]];
+        for (let k = runs[r + 1]; k > 0; k--) out[i++] = text;
+      }
+      values[c] = out;
+    }
+    const records = [];
+    for (let i = 0; i < n; i++) {
+      const record = {};
+      for (let c = 0; c < keys.length; c++) setOwn(record, keys[c], values[c][i]);
+      records[i] = record;
+    }
+    return records;
+  }
+  function lazyRecords(owner, key, spec) {
+    const entry = { getter: undefined, spec: spec, read: false };
+    let records;
+    entry.getter = { [key]() {
+      if (!entry.read) {
+        entry.read = true;
+        records = materialize(spec);
+        if (ownDescriptor(owner, key).configurable) defineProperty(owner, key, { value: records, writable: true, enumerable: true, configurable: true });
+      }
+      return records;
+    } }[key];
+    const setter = { [key](v) {
+      entry.read = true;
+      defineProperty(owner, key, { value: v, writable: true, enumerable: true, configurable: true });
+    } }[key];
+    defineProperty(owner, key, { get: entry.getter, set: setter, enumerable: true, configurable: true });
+    let table = lazyGet(lazyTables, owner);
+    if (table === undefined) {
+      table = nullObject(null);
+      lazySet(lazyTables, owner, table);
+    }
+    table[key] = entry;
+  }
+  // The entry of owner[key] when it is still an unread record table, else undefined.
+  function unreadTable(owner, key) {
+    const table = lazyGet(lazyTables, owner);
+    if (table === undefined) return undefined;
+    const entry = table[key];
+    if (entry === undefined || entry.read) return undefined;
+    const d = ownDescriptor(owner, key);
+    return d !== undefined && d.get === entry.getter ? entry : undefined;
+  }
+
   function encode(value, where) {
-    const buffers = [], patches = [], path = [], containers = [];
+    const buffers = [], patches = [], path = [], containers = [], tables = [];
+    function recordTable(spec, depth) {
+      const columns = [];
+      for (let c = 0; c < spec.cols.length; c++) {
+        const col = spec.cols[c];
+        const bytes = col.f !== undefined ? col.f : col.runs;
+        buffers[buffers.length] = sliceBuffer(bytes.buffer, bytes.byteOffset, bytes.byteOffset + bytes.byteLength);
+        columns[c] = col.f !== undefined ? { f: buffers.length - 1 } : { s: col.s, runs: buffers.length - 1 };
+      }
+      tables[tables.length] = { n: spec.n, keys: spec.keys, columns: columns };
+      return patch(depth, { r: tables.length - 1 });
+    }
     function patch(depth, code) {
       const p = [];
       for (let j = 0; j < depth; j++) p[j] = path[j];
@@ -118,9 +192,16 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
       } else {
         out = {};
         const ks = keysOf(v);
+        const lazy = lazyGet(lazyTables, v) !== undefined;
         for (let i = 0; i < ks.length; i++) {
           const k = ks[i];
           if (k === "__proto__") throw new TypeErr(fieldName(where, k) + " is a key named \"__proto__\", which cannot be passed; rename it");
+          const unread = lazy ? unreadTable(v, k) : undefined;
+          if (unread !== undefined) {
+            path[depth] = k;
+            out[k] = recordTable(unread.spec, depth + 1);
+            continue;
+          }
           const e = v[k], t = typeof e;
           let w = e;
           if (!(t === "number" ? e - e === 0 && (e !== 0 || 1 / e > 0) : t === "string" ? e.length < TEXT_MIN : t === "boolean" || e === null)) {
@@ -133,25 +214,39 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
       return out;
     }
     const plain = walk(value, "", 0);
-    return [stringify([plain, patches]), buffers];
+    return [stringify(tables.length > 0 ? [plain, patches, tables] : [plain, patches]), buffers];
   }
 
   function decode(wire) {
     const both = parse(wire[0]);
     const patches = both[1];
     if (patches.length === 0) return both[0];
-    const buffers = wire[1];
+    const buffers = wire[1], tables = both[2];
     let root = both[0];
     for (let i = 0; i < patches.length; i += 2) {
       const path = patches[i], code = patches[i + 1];
-      const v = typeof code === "number" ? new F64A(buffers[code]) : code === "undefined" ? undefined : +code;
+      let spec;
+      if (typeof code === "object") {
+        const t = tables[code.r], cols = [];
+        for (let c = 0; c < t.columns.length; c++) {
+          const col = t.columns[c];
+          cols[c] = col.f !== undefined ? { f: new F64A(buffers[col.f]) } : { s: col.s, runs: new F64A(buffers[col.runs]) };
+        }
+        spec = { n: t.n, keys: t.keys, cols: cols };
+      }
       if (path.length === 0) {
-        root = v;
+        root = spec !== undefined ? materialize(spec) : typeof code === "number" ? new F64A(buffers[code]) : code === "undefined" ? undefined : +code;
         continue;
       }
       let node = root;
       for (let k = 0; k < path.length - 1; k++) node = node[path[k]];
-      setOwn(node, path[path.length - 1], v);
+      const key = path[path.length - 1];
+      if (spec !== undefined) {
+        if (isArray(node)) setOwn(node, key, materialize(spec));
+        else lazyRecords(node, key, spec);
+        continue;
+      }
+      setOwn(node, key, typeof code === "number" ? new F64A(buffers[code]) : code === "undefined" ? undefined : +code);
     }
     return root;
   }
