@@ -80,9 +80,10 @@ function fieldValue(raw: string): number | string | null {
 /**
  * Parses CSV text with a header line into a DataTable (see the module comment for the column forms).
  * `firstLine` is the file line of the text's first line; errors name the data cell, the line and what to fix.
+ * `checkpoint` is called as the records are read (the kernel's time limit for the data cell; it may throw).
  */
-export function parseDataTable(name: string, text: string, firstLine = 1): DataTable {
-  const { records, problems } = readCsvRecords(text, guessSeparator(text), firstLine);
+export function parseDataTable(name: string, text: string, firstLine = 1, checkpoint?: () => void): DataTable {
+  const { records, problems } = readCsvRecords(text, guessSeparator(text), firstLine, checkpoint);
   if (problems.length > 0) {
     const p = problems[0]!;
     throw new DataCellError(`data "${name}", line ${p.line}, field ${p.field}: ${p.message} ${p.fix}`, p.line);

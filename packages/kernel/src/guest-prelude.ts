@@ -15,7 +15,7 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   "use strict";
   const G = globalThis;
   const stringify = JSON.stringify, parse = JSON.parse;
-  const getProto = Object.getPrototypeOf, objectProto = Object.prototype, keysOf = Object.keys;
+  const getProto = Object.getPrototypeOf, objectProto = Object.prototype, arrayProto = Array.prototype, keysOf = Object.keys;
   const isArray = Array.isArray, isView = ArrayBuffer.isView;
   const freeze = Object.freeze, defineProperty = Object.defineProperty;
   const isFinite = Number.isFinite;
@@ -82,13 +82,57 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     }
     return records;
   }
+  // Arrays made from record tables, with the records they were made of: passed back while every record is still
+  // the one made, with the same keys and values (a spread { ...series } reads excluded and copies this array's
+  // reference), such an array crosses in column form again.
+  const madeFrom = new WeakMap();
+  const madeGet = Function.prototype.call.bind(WeakMap.prototype.get);
+  const madeSet = Function.prototype.call.bind(WeakMap.prototype.set);
+  function sameNumber(a, b) {
+    return a === b ? a !== 0 || 1 / a === 1 / b : a !== a && b !== b;
+  }
+  function unchangedTable(array, made) {
+    const spec = made.spec, n = spec.n, keys = spec.keys, cols = spec.cols, records = made.records;
+    if (getProto(array) !== arrayProto || array.length !== n) return false;
+    const values = [];
+    for (let c = 0; c < cols.length; c++) values[c] = cols[c].f !== undefined ? cols[c].f : undefined;
+    for (let i = 0; i < n; i++) {
+      const r = array[i];
+      if (r !== records[i] || getProto(r) !== objectProto) return false;
+      let count = 0;
+      for (const k in r) count++;
+      if (count !== keys.length) return false;
+      for (let c = 0; c < keys.length; c++) {
+        const v = r[keys[c]];
+        if (values[c] !== undefined ? typeof v !== "number" || !sameNumber(v, values[c][i]) : typeof v !== "string") return false;
+      }
+    }
+    // Text columns: compare run by run.
+    for (let c = 0; c < cols.length; c++) {
+      if (cols[c].f !== undefined) continue;
+      const runs = cols[c].runs, strings = cols[c].s, key = keys[c];
+      let i = 0;
+      for (let k = 0; k < runs.length; k += 2) {
+        const text = strings[runs[k]];
+        for (let m = runs[k + 1]; m > 0; m--) if (array[i++][key] !== text) return false;
+      }
+    }
+    return true;
+  }
+  function materializeKept(spec) {
+    const records = materialize(spec);
+    const copy = [];
+    for (let i = 0; i < records.length; i++) copy[i] = records[i];
+    madeSet(madeFrom, records, { spec: spec, records: copy });
+    return records;
+  }
   function lazyRecords(owner, key, spec) {
     const entry = { getter: undefined, spec: spec, read: false };
     let records;
     entry.getter = { [key]() {
       if (!entry.read) {
         entry.read = true;
-        records = materialize(spec);
+        records = materializeKept(spec);
         if (ownDescriptor(owner, key).configurable) defineProperty(owner, key, { value: records, writable: true, enumerable: true, configurable: true });
       }
       return records;
@@ -179,6 +223,8 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
       containers[depth] = v;
       let out;
       if (array) {
+        const made = madeGet(madeFrom, v);
+        if (made !== undefined && unchangedTable(v, made)) return recordTable(made.spec, depth);
         out = [];
         const n = v.length;
         for (let i = 0; i < n; i++) {

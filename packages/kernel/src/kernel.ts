@@ -15,6 +15,7 @@ import { chartDataNames, chartRecords, fillChartData } from "./chart-cells.js";
 import { controlValue, type ControlRecord, type RecordedControl } from "./controls.js";
 import { dataCellText, DataCellError, parseDataTable, type ReadFile } from "./data-cells.js";
 import { chartOutput, displayToOutputs } from "./displays.js";
+import { HostTimeLimitError, hostCheckpoint, withHostDeadline } from "./host-budget.js";
 import { newWasmMemory, type WasmMemory } from "./wasm-memory.js";
 import { HOST_RESERVE_MB, SANDBOX_BASE_MB, limitsFor, type RunLimits } from "./limits.js";
 import { abortMessage, cellFilename, errorLocation } from "./locations.js";
@@ -324,7 +325,16 @@ async function runCell(
       const text = await dataCellText(cell, readFile);
       const path = cell.file?.path;
       dataTexts.set(text, path !== undefined ? (line) => `${path}:${line}` : (line) => `data cell ${cell.id}, line ${fileLine(line)} of the document`);
-      const table = parseDataTable(cell.name, text, cell.file ? 1 : cell.sourceStart.line);
+      // The host's reading of the CSV counts against the cell's time limit like the cell's own work would.
+      let table;
+      try {
+        table = withHostDeadline(Date.now() + limits.timeLimitMs, () =>
+          parseDataTable(cell.name, text, cell.file ? 1 : cell.sourceStart.line, hostCheckpoint(`data "${cell.name}"`)),
+        );
+      } catch (e) {
+        if (!(e instanceof HostTimeLimitError)) throw e;
+        return { type: "error", message: abortMessage(cell.id, "time", limits, STACK_LIMIT_BYTES), line: cell.sourceStart.line };
+      }
       const outcome = sandbox.defineTable(table, limits.timeLimitMs);
       if (!outcome.ok) return guestErrorOutput(cell, outcome.error, limits);
       return undefined;

@@ -29,7 +29,7 @@ async function shown(cells: Parameters<typeof makeDoc>[0]): Promise<unknown[]> {
   const r = await kernel.runDocument(makeDoc(cells));
   const failed = Object.entries(r.status).find(([, s]) => s !== "ok");
   if (failed) throw new Error(JSON.stringify(r.outputs[failed[0]]));
-  return Object.values(r.outputs).flatMap((outs) => outs.map((o) => (o.type === "json" || o.type === "value" || o.type === "text" ? o.value : o)));
+  return Object.values(r.outputs).flatMap((outs) => outs.map((o) => (o.type === "json" || o.type === "value" ? o.value : o)));
 }
 
 describe("record tables on the wire", () => {
@@ -101,6 +101,20 @@ describe("parts of results and tables that cross only when a cell reads them", (
     ]);
     expect(unread).toEqual(JSON.parse(JSON.stringify(thinned.series.excluded)));
     expect(edited).toEqual(JSON.parse(JSON.stringify(thinned.series.excluded.slice(0, 2))));
+  });
+
+  it("passes a read excluded list back as read, also through a spread copy, and keeps a cell's edit of one record", async () => {
+    const thinned = logResample(host.series, { pointsPerDecade: 10 });
+    const [copied, edited] = await shown([
+      { kind: "data", name: "rec", source: csv },
+      `const imp = aq.parseObservationCsv(rec.csv, ${JSON.stringify(OPTIONS)});\n` +
+        "const copy = { ...imp.series, name: 'OB-T copy' };\n" +
+        "show.json(aq.logResample(copy, { pointsPerDecade: 10 }).series.excluded);\n" +
+        "copy.excluded[5].reason = 'checked by hand';\n" +
+        "show.json(aq.logResample(copy, { pointsPerDecade: 10 }).series.excluded[5])",
+    ]);
+    expect(copied).toEqual(JSON.parse(JSON.stringify(thinned.series.excluded)));
+    expect(edited).toEqual({ ...JSON.parse(JSON.stringify(thinned.series.excluded[5])), reason: "checked by hand" });
   });
 
   it("gives a cell a data table's text column and CSV text when read, as the host reads them", async () => {
