@@ -54,13 +54,15 @@ export function preparePython(): PythonChoice {
     }
   }
   const pip = (args: string[]) => spawnSync(python, ["-m", "pip", "install", "--upgrade", "--disable-pip-version-check", ...args, "scipy", "numpy"], { encoding: "utf8", timeout: 600_000 });
-  const registry = pip(["--isolated", "--retries", "0", "--timeout", "15"]);
+  // Whether the registry answers: pip in isolated mode (no configuration, so only the registry) lists scipy's versions.
+  const probe = spawnSync(python, ["-m", "pip", "index", "versions", "scipy", "--isolated", "--retries", "0", "--timeout", "15", "--disable-pip-version-check"], { encoding: "utf8", timeout: 120_000 });
+  const registry = probe.status === 0 ? pip(["--isolated", "--retries", "0", "--timeout", "15"]) : probe;
   if (registry.status === 0) notes.push("scipy peer: scipy and numpy installed from the Python registry into the bench's virtual environment");
   else {
     const output = `${registry.stderr}\n${registry.stdout}`;
     const network = output.split("\n").find((l) => /Failed to establish a new connection|Name or service not known|Temporary failure in name resolution|Network is unreachable/.test(l));
     const reason = network ? network.replace(/^.*?(Failed to establish|Name or service|Temporary failure|Network is)/, "$1").replace(/['")]+$/, "") : lastLine(output);
-    notes.push(`scipy peer: the Python registry is not reachable from this machine (pip --isolated: ${reason})`);
+    notes.push(`scipy peer: the Python registry is not reachable from this machine (pip --isolated, which asks the registry alone: ${reason})`);
     const configured = pip([]);
     const indexes = spawnSync(python, ["-m", "pip", "config", "list"], { encoding: "utf8" }).stdout.trim().split("\n").filter((l) => /index-url|find-links/.test(l));
     if (configured.status === 0) {
