@@ -6,7 +6,9 @@
 import { parentPort } from "node:worker_threads";
 import type { ConebookDocument } from "@conebook/document";
 import type { CellStart, HashedBytes, ReadFile, RecordedControl, RunProgress, RunResult } from "@conebook/kernel";
-import { createNodeKernel, fileReaderFor } from "@conebook/kernel/node";
+import { createKernel } from "@conebook/kernel";
+import { fileReaderFor } from "@conebook/kernel/node";
+import { fileStripCache } from "./strip-cache.js";
 
 /** What the main thread sends: one run. */
 export interface RunRequest {
@@ -43,7 +45,7 @@ const port = parentPort;
 if (port) {
   port.once("message", async (request: RunRequest) => {
     const post = (reply: RunReply) => port.postMessage(reply);
-    const kernel = createNodeKernel();
+    const kernel = createKernel({ stripCache: fileStripCache() });
     try {
       const result = await kernel.runDocument(request.document, {
         overrides: request.overrides,

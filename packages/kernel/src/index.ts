@@ -24,7 +24,7 @@ export { abortMessage } from "./locations.js";
 export { STACK_LIMIT_BYTES, Sandbox, type SandboxHooks, type SandboxOptions } from "./sandbox.js";
 export { AQUIFER_API, BRIDGE_API, CHART_API, arg, fn, type BridgeArgument, type BridgeEntry } from "./bridge-api.js";
 export { ArgumentError } from "./validators.js";
-export { stripTypes, CellSyntaxError, type StrippedCell } from "./strip-types.js";
+export { stripTypes, stripTypesCached, strippedFrom, CellSyntaxError, type StripCache, type StrippedCell, type StrippedForm } from "./strip-types.js";
 export { parseDataTable, DataCellError, type DataTable, type HashedBytes, type ReadFile } from "./data-cells.js";
 export { platformSha256, type Sha256 } from "./digest.js";
 export { recordedControlValues, recordedRunSettings, type ControlRecord, type RecordedControl } from "./controls.js";
