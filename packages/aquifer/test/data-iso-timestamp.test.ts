@@ -127,3 +127,42 @@ describe("counting days of the Gregorian calendar", () => {
     );
   });
 });
+
+describe("the fast reading of the common logger form YYYY-MM-DDThh:mm:ss[Z|±hh:mm]", () => {
+  const pad = (n: number, w = 2) => String(n).padStart(w, "0");
+  const stamp = fc
+    .record({
+      year: fc.integer({ min: 1900, max: 2199 }),
+      month: fc.integer({ min: 0, max: 13 }),
+      day: fc.integer({ min: 0, max: 32 }),
+      hour: fc.integer({ min: 0, max: 25 }),
+      minute: fc.integer({ min: 0, max: 60 }),
+      second: fc.integer({ min: 0, max: 60 }),
+      offset: fc.oneof(fc.constant(""), fc.constant("Z"), fc.tuple(fc.constantFrom("+", "-"), fc.integer({ min: 0, max: 24 }), fc.integer({ min: 0, max: 60 })).map(([s, h, m]) => `${s}${pad(h)}:${pad(m)}`)),
+    })
+    .map((p) => `${pad(p.year, 4)}-${pad(p.month)}-${pad(p.day)}T${pad(p.hour)}:${pad(p.minute)}:${pad(p.second)}${p.offset}`);
+
+  it("reads every such text, valid or not, as the general reading does (which a trailing space forces)", () => {
+    fc.assert(
+      fc.property(stamp, (text) => {
+        const fast = readIsoTimestamp(text);
+        const general = readIsoTimestamp(`${text} `);
+        expect(fast.ok).toBe(general.ok);
+        if (fast.ok && general.ok) expect(fast.value).toEqual(general.value);
+      }),
+      { numRuns: 3000 },
+    );
+  });
+
+  it("gives the instant Date.parse gives for valid texts with an offset", () => {
+    // Reference: ECMA-262 section 21.4.1.32 (Date Time String Format), defined without the host's time zone.
+    fc.assert(
+      fc.property(stamp, (text) => {
+        const r = readIsoTimestamp(text);
+        if (!r.ok || r.value.offsetMinutes === null) return;
+        expect(instantMs(r.value, Number.NaN)).toBe(Date.parse(text));
+      }),
+      { numRuns: 3000 },
+    );
+  });
+});

@@ -122,6 +122,14 @@ export async function execute(
       else settle(() => reject(e));
     });
     worker.on("exit", (code) => settle(() => reject(new Error(`the run's worker thread ended unexpectedly with exit code ${code}`))));
-    worker.postMessage({ document: doc, overrides, recordedControls: recorded, folder: loaded.folder } satisfies RunRequest);
+    // The files checkPins read and hashed move to the worker (their buffers transferred, not copied), so each is
+    // read and hashed once per command; a later run of the same loaded document reads them again.
+    const files = [...loaded.checkedFiles];
+    loaded.checkedFiles.clear();
+    const transfer = files
+      .map(([, f]) => f.bytes)
+      .filter((b) => b.byteOffset === 0 && b.byteLength === b.buffer.byteLength && b.buffer instanceof ArrayBuffer)
+      .map((b) => b.buffer as ArrayBuffer);
+    worker.postMessage({ document: doc, overrides, recordedControls: recorded, folder: loaded.folder, files } satisfies RunRequest, [...new Set(transfer)]);
   });
 }

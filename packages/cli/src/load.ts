@@ -2,11 +2,12 @@
  * Reading a document from disk for a command: the bytes (for the document's SHA-256), the parsed model, and its
  * warnings. Errors in the document become one InputError listing every error as `file:line:column: message`.
  */
+import { createHash } from "node:crypto";
 import { readFile } from "node:fs/promises";
 import { dirname, relative, resolve } from "node:path";
-import { DocumentError, decodeUtf8, describeUtf8Problem, formatDiagnostic, parseDocument, sha256Hex, utf8Problem } from "@conebook/document";
+import { DocumentError, decodeUtf8Strict, describeUtf8Problem, formatDiagnostic, parseDocument } from "@conebook/document";
 import type { ConebookDocument, Diagnostic } from "@conebook/document";
-import { checkDataPins, type PinCheck } from "@conebook/kernel";
+import { checkDataPins, type HashedBytes, type PinCheck } from "@conebook/kernel";
 import { fileReaderFor } from "@conebook/kernel/node";
 import { InputError, place } from "./errors.js";
 
@@ -22,6 +23,16 @@ export interface LoadedDocument {
   text: string;
   document: ConebookDocument;
   warnings: Diagnostic[];
+  /**
+   * The pinned data files as `checkPins` read and hashed them, by path: the run takes them from here (each file is
+   * read and hashed once per command) and empties the map.
+   */
+  checkedFiles: Map<string, HashedBytes>;
+}
+
+/** The SHA-256 (FIPS 180-4) of bytes with Node's crypto, lowercase hex. */
+export function nodeSha256(bytes: Uint8Array): string {
+  return createHash("sha256").update(bytes).digest("hex");
 }
 
 /** The path as a user would type it from the working folder. */
@@ -44,9 +55,12 @@ export async function loadDocument(file: string, cwd: string): Promise<LoadedDoc
     throw new InputError(`${shown}: cannot read: ${(e as Error).message}`);
   }
   // Refused rather than decoded with replacement characters, which --write would then save over the bytes.
-  const notUtf8 = utf8Problem(bytes);
-  if (notUtf8) throw new InputError(`${place(shown, notUtf8.line, notUtf8.column)}: the file is not UTF-8 at ${describeUtf8Problem(notUtf8)}; save it as UTF-8`);
-  const text = decodeUtf8(bytes);
+  const decoded = decodeUtf8Strict(bytes);
+  if (!decoded.ok) {
+    const notUtf8 = decoded.problem;
+    throw new InputError(`${place(shown, notUtf8.line, notUtf8.column)}: the file is not UTF-8 at ${describeUtf8Problem(notUtf8)}; save it as UTF-8`);
+  }
+  const text = decoded.text;
   let parsed;
   try {
     parsed = parseDocument(text, { file: shown });
@@ -67,12 +81,13 @@ export async function loadDocument(file: string, cwd: string): Promise<LoadedDoc
     text,
     document: parsed.document,
     warnings: parsed.diagnostics.filter((d) => d.severity === "warning").map((d) => ({ ...d, file: shown })),
+    checkedFiles: new Map(),
   };
 }
 
 /** The SHA-256 of the document's bytes (FIPS 180-4), lowercase hex. */
 export function documentSha256(loaded: LoadedDocument): string {
-  return sha256Hex(loaded.bytes);
+  return nodeSha256(loaded.bytes);
 }
 
 /**
@@ -80,7 +95,13 @@ export function documentSha256(loaded: LoadedDocument): string {
  * a changed file is returned in `changed` for the command to report as it sees fit.
  */
 export async function checkPins(loaded: LoadedDocument): Promise<{ checks: PinCheck[]; changed: PinCheck[] }> {
-  const checks = await checkDataPins(loaded.document, fileReaderFor(loaded.folder));
+  const read = fileReaderFor(loaded.folder);
+  const checks = await checkDataPins(loaded.document, async (path) => {
+    const bytes = await read(path);
+    const hashed = { bytes, sha256: nodeSha256(bytes) };
+    loaded.checkedFiles.set(path, hashed);
+    return hashed;
+  });
   const unreadable = checks.filter((c) => c.status === "unreadable");
   if (unreadable.length > 0) {
     const lines = unreadable.map(

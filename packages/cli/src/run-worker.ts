@@ -5,8 +5,10 @@
  */
 import { parentPort } from "node:worker_threads";
 import type { ConebookDocument } from "@conebook/document";
-import type { CellStart, RecordedControl, RunProgress, RunResult } from "@conebook/kernel";
-import { createNodeKernel, fileReaderFor } from "@conebook/kernel/node";
+import type { CellStart, HashedBytes, ReadFile, RecordedControl, RunProgress, RunResult } from "@conebook/kernel";
+import { createKernel } from "@conebook/kernel";
+import { fileReaderFor } from "@conebook/kernel/node";
+import { fileStripCache } from "./strip-cache.js";
 
 /** What the main thread sends: one run. */
 export interface RunRequest {
@@ -16,6 +18,20 @@ export interface RunRequest {
   recordedControls: Record<string, RecordedControl>;
   /** The document's folder; pinned data files are read relative to it. */
   folder: string;
+  /** Pinned data files the main thread has read and hashed already, by path (others are read from `folder`). */
+  files: [string, HashedBytes][];
+}
+
+/** Reads the files sent with the request, each once, and any other file from the document's folder. */
+function requestReader(request: RunRequest): ReadFile {
+  const sent = new Map(request.files);
+  const fromDisk = fileReaderFor(request.folder);
+  return (path) => {
+    const file = sent.get(path);
+    if (file === undefined) return fromDisk(path);
+    sent.delete(path);
+    return file;
+  };
 }
 
 /** What the worker posts back: starts and progress per cell, then one result or failure. */
@@ -29,12 +45,12 @@ const port = parentPort;
 if (port) {
   port.once("message", async (request: RunRequest) => {
     const post = (reply: RunReply) => port.postMessage(reply);
-    const kernel = createNodeKernel();
+    const kernel = createKernel({ stripCache: fileStripCache() });
     try {
       const result = await kernel.runDocument(request.document, {
         overrides: request.overrides,
         recordedControls: request.recordedControls,
-        readFile: fileReaderFor(request.folder),
+        readFile: requestReader(request),
         onCellStart: (start) => post({ type: "start", start }),
         onProgress: (progress) => post({ type: "progress", progress }),
       });

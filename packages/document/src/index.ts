@@ -36,7 +36,7 @@ export { messages } from "./messages.js";
 export { RESERVED_NAMES, isReservedName, reservedNameReason } from "./names.js";
 export { renderNarrative } from "./render.js";
 export { sha256Hex, utf8Bytes } from "./sha256.js";
-export { decodeUtf8, describeUtf8Problem, utf8Problem, type Utf8Problem } from "./utf8.js";
+export { decodeUtf8, decodeUtf8Strict, describeUtf8Problem, utf8Problem, type Utf8Problem } from "./utf8.js";
 export { FORMAT_VERSION, HEADER_KEYS } from "./header.js";
 export { DEFAULT_CELL_TIME_LIMIT_MS, MAX_CELL_TIME_LIMIT_MS, DEFAULT_MEMORY_LIMIT_MB, MAX_MEMORY_LIMIT_MB } from "./limits.js";
 export { headerSchema, chartSpecSchema } from "./schema.js";

@@ -30,8 +30,35 @@ function sequenceLength(b: Uint8Array, i: number): number {
   return 0;
 }
 
-/** The first ill-formed UTF-8 sequence in `bytes`, or undefined when all of it is well-formed. Linear time. */
+/** The platform's strict decoder (WHATWG UTF-8, which accepts exactly the sequences of Table 3-7), made once. */
+let strictDecoder: { decode(bytes: Uint8Array): string } | undefined;
+
+/**
+ * The text of `bytes` when they are well-formed UTF-8 (a leading byte order mark kept as U+FEFF, as decodeUtf8
+ * does), else the first problem. One native pass; the problem's place is found by utf8Problem only when there is one.
+ */
+export function decodeUtf8Strict(bytes: Uint8Array): { ok: true; text: string } | { ok: false; problem: Utf8Problem } {
+  strictDecoder ??= new TextDecoder("utf-8", { fatal: true, ignoreBOM: true });
+  try {
+    return { ok: true, text: strictDecoder.decode(bytes) };
+  } catch {
+    const problem = scanUtf8(bytes);
+    // The platform decoder and the scan below follow the same table; should they ever disagree, trust the decoder.
+    return problem ? { ok: false, problem } : { ok: false, problem: { offset: 0, line: 1, column: 1, bytes: "" } };
+  }
+}
+
+/**
+ * The first ill-formed UTF-8 sequence in `bytes`, or undefined when all of it is well-formed. Linear time: the
+ * platform's strict decoder checks the bytes natively, and the byte-by-byte scan runs only to place a problem.
+ */
 export function utf8Problem(bytes: Uint8Array): Utf8Problem | undefined {
+  const decoded = decodeUtf8Strict(bytes);
+  return decoded.ok ? undefined : decoded.problem;
+}
+
+/** The byte-by-byte scan behind utf8Problem: the first ill-formed sequence with its line and column. */
+function scanUtf8(bytes: Uint8Array): Utf8Problem | undefined {
   let line = 1;
   let column = 1;
   for (let i = 0; i < bytes.length; ) {

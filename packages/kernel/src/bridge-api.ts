@@ -695,7 +695,8 @@ export const AQUIFER_API: Readonly<Record<string, BridgeEntry>> = {
   "aq.parseObservationCsv": fn(
     "An observation record read from CSV text: { series (times, drawdowns, units, radius, rate, excluded), notes }",
     [arg("text", stringArg()), arg("options", csvOptionsArg)],
-    (text, options) => parseObservationCsv(text, options as ObservationCsvOptions),
+    (text, options) =>
+      parseObservationCsv(text, options as ObservationCsvOptions, { checkpoint: hostCheckpoint("aq.parseObservationCsv") }),
   ),
   "aq.toBaseUnits": fn("A series in base units: { name, t (d), s (m), r (m), Q (m3/d, null if stepped), steps }", [arg("series", seriesArg)], (series) =>
     toBaseUnits(series),

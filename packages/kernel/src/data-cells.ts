@@ -10,8 +10,9 @@
  * becomes 100,000 objects.
  */
 import { readCsvRecords, type CsvSeparator } from "@conebook/aquifer";
-import { decodeUtf8, describeUtf8Problem, sha256Hex, utf8Problem } from "@conebook/document";
+import { decodeUtf8Strict, describeUtf8Problem } from "@conebook/document";
 import type { DataCell } from "@conebook/document";
+import { platformSha256 } from "./digest.js";
 
 /** One column of a data table: numbers (NaN where the field is empty), or field values. */
 export type DataColumn = Float64Array | (number | string | null)[];
@@ -37,8 +38,24 @@ export class DataCellError extends Error {
   }
 }
 
-/** Reads the bytes of a file beside the document (relative path, forward slashes). */
-export type ReadFile = (path: string) => Promise<Uint8Array> | Uint8Array;
+/** Bytes a reader has already hashed (the CLI hashes each pinned file once, before the run, and sends both). */
+export interface HashedBytes {
+  bytes: Uint8Array;
+  /** SHA-256 of `bytes`, 64 lowercase hexadecimal digits. */
+  sha256: string;
+}
+
+/**
+ * Reads the bytes of a file beside the document (relative path, forward slashes); a reader that has hashed them
+ * returns them with their SHA-256, which the run then uses instead of hashing them again.
+ */
+export type ReadFile = (path: string) => Promise<Uint8Array | HashedBytes> | Uint8Array | HashedBytes;
+
+/** The bytes and SHA-256 of what a ReadFile returned (hashing them on the platform when the reader did not). */
+export async function hashedBytes(read: Uint8Array | HashedBytes): Promise<HashedBytes> {
+  if (read instanceof Uint8Array) return { bytes: read, sha256: await platformSha256(read) };
+  return read;
+}
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
@@ -63,9 +80,10 @@ function fieldValue(raw: string): number | string | null {
 /**
  * Parses CSV text with a header line into a DataTable (see the module comment for the column forms).
  * `firstLine` is the file line of the text's first line; errors name the data cell, the line and what to fix.
+ * `checkpoint` is called as the records are read (the kernel's time limit for the data cell; it may throw).
  */
-export function parseDataTable(name: string, text: string, firstLine = 1): DataTable {
-  const { records, problems } = readCsvRecords(text, guessSeparator(text), firstLine);
+export function parseDataTable(name: string, text: string, firstLine = 1, checkpoint?: () => void): DataTable {
+  const { records, problems } = readCsvRecords(text, guessSeparator(text), firstLine, checkpoint);
   if (problems.length > 0) {
     const p = problems[0]!;
     throw new DataCellError(`data "${name}", line ${p.line}, field ${p.field}: ${p.message} ${p.fix}`, p.line);
@@ -125,24 +143,24 @@ export async function dataCellText(cell: DataCell, readFile: ReadFile | undefine
   if (!readFile) {
     throw new DataCellError(`data "${cell.name}" refers to the file ${path}, but this run was given no way to read files`);
   }
-  let bytes: Uint8Array;
+  let read: HashedBytes;
   try {
-    bytes = await readFile(path);
+    read = await hashedBytes(await readFile(path));
   } catch (e) {
     throw new DataCellError(`data "${cell.name}": could not read ${path}: ${e instanceof Error ? e.message : String(e)}`);
   }
-  const actual = await sha256Hex(bytes);
+  const actual = read.sha256;
   if (actual !== sha256.toLowerCase()) {
     throw new DataCellError(
       `data "${cell.name}": the file ${path} has SHA-256 ${actual}, but the document pins ${sha256.toLowerCase()}; ` +
         "the file changed since it was pinned. Restore the original file, or update the pin if the change is intended.",
     );
   }
-  const problem = utf8Problem(bytes);
-  if (problem) {
+  const decoded = decodeUtf8Strict(read.bytes);
+  if (!decoded.ok) {
     throw new DataCellError(
-      `data "${cell.name}": the file ${path} is not UTF-8 at ${describeUtf8Problem(problem)}; save it as UTF-8 (and pin the new bytes)`,
+      `data "${cell.name}": the file ${path} is not UTF-8 at ${describeUtf8Problem(decoded.problem)}; save it as UTF-8 (and pin the new bytes)`,
     );
   }
-  return decodeUtf8(bytes);
+  return decoded.text;
 }

@@ -15,18 +15,19 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   "use strict";
   const G = globalThis;
   const stringify = JSON.stringify, parse = JSON.parse;
-  const getProto = Object.getPrototypeOf, objectProto = Object.prototype, keysOf = Object.keys;
+  const getProto = Object.getPrototypeOf, objectProto = Object.prototype, arrayProto = Array.prototype, keysOf = Object.keys;
   const isArray = Array.isArray, isView = ArrayBuffer.isView;
   const freeze = Object.freeze, defineProperty = Object.defineProperty;
   const isFinite = Number.isFinite;
   const F64A = Float64Array, TypeErr = TypeError, Err = Error, Sym = Symbol;
   const sliceBuffer = Function.prototype.call.bind(ArrayBuffer.prototype.slice);
-  const sliceF64 = Function.prototype.call.bind(Float64Array.prototype.slice);
   const sliceArray = Function.prototype.call.bind(Array.prototype.slice);
   const push = Function.prototype.call.bind(Array.prototype.push);
   const callFn = Function.prototype.call.bind(Function.prototype.call);
   const indirectEval = eval, construct = Reflect.construct;
   const DISPLAY = Sym("conebook.display");
+  // The CSV texts of the data tables a cell has read, by table index: passed back, one crosses as a reference.
+  const texts = [], TEXT_MIN = config.textReferenceMin;
   const CYCLE_CHECK_DEPTH = 64;
 
   function describe(v) {
@@ -51,8 +52,126 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   // wire.ts). The walk below checks that only plain data is passed and copies it into a tree that the native
   // JSON.stringify writes without a replacer (a replacer costs a guest function call per value). Numbers,
   // strings, booleans and null inside arrays and objects are copied inline, without a call.
+  // Arrays of records the host sent in column form (see wire.ts) that no cell has read yet: owner object -> { key:
+  // { getter, spec, read } }. Passed back unread, one crosses in the same column form.
+  const lazyTables = new WeakMap();
+  const lazyGet = Function.prototype.call.bind(WeakMap.prototype.get);
+  const lazySet = Function.prototype.call.bind(WeakMap.prototype.set);
+  const ownDescriptor = Object.getOwnPropertyDescriptor, nullObject = Object.create;
+  function materialize(spec) {
+    const n = spec.n, keys = spec.keys, cols = spec.cols, values = [];
+    for (let c = 0; c < cols.length; c++) {
+      const col = cols[c];
+      if (col.f !== undefined) {
+        values[c] = col.f;
+        continue;
+      }
+      const out = [], runs = col.runs, strings = col.s;
+      let i = 0;
+      for (let r = 0; r < runs.length; r += 2) {
+        const text = strings[runs[r]];
+        for (let k = runs[r + 1]; k > 0; k--) out[i++] = text;
+      }
+      values[c] = out;
+    }
+    const records = [];
+    for (let i = 0; i < n; i++) {
+      const record = {};
+      for (let c = 0; c < keys.length; c++) setOwn(record, keys[c], values[c][i]);
+      records[i] = record;
+    }
+    return records;
+  }
+  // Arrays made from record tables, with the records they were made of: passed back while every record is still
+  // the one made, with the same keys and values (a spread { ...series } reads excluded and copies this array's
+  // reference), such an array crosses in column form again.
+  const madeFrom = new WeakMap();
+  const madeGet = Function.prototype.call.bind(WeakMap.prototype.get);
+  const madeSet = Function.prototype.call.bind(WeakMap.prototype.set);
+  function sameNumber(a, b) {
+    return a === b ? a !== 0 || 1 / a === 1 / b : a !== a && b !== b;
+  }
+  function unchangedTable(array, made) {
+    const spec = made.spec, n = spec.n, keys = spec.keys, cols = spec.cols, records = made.records;
+    if (getProto(array) !== arrayProto || array.length !== n) return false;
+    const values = [];
+    for (let c = 0; c < cols.length; c++) values[c] = cols[c].f !== undefined ? cols[c].f : undefined;
+    for (let i = 0; i < n; i++) {
+      const r = array[i];
+      if (r !== records[i] || getProto(r) !== objectProto) return false;
+      let count = 0;
+      for (const k in r) count++;
+      if (count !== keys.length) return false;
+      for (let c = 0; c < keys.length; c++) {
+        const v = r[keys[c]];
+        if (values[c] !== undefined ? typeof v !== "number" || !sameNumber(v, values[c][i]) : typeof v !== "string") return false;
+      }
+    }
+    // Text columns: compare run by run.
+    for (let c = 0; c < cols.length; c++) {
+      if (cols[c].f !== undefined) continue;
+      const runs = cols[c].runs, strings = cols[c].s, key = keys[c];
+      let i = 0;
+      for (let k = 0; k < runs.length; k += 2) {
+        const text = strings[runs[k]];
+        for (let m = runs[k + 1]; m > 0; m--) if (array[i++][key] !== text) return false;
+      }
+    }
+    return true;
+  }
+  function materializeKept(spec) {
+    const records = materialize(spec);
+    const copy = [];
+    for (let i = 0; i < records.length; i++) copy[i] = records[i];
+    madeSet(madeFrom, records, { spec: spec, records: copy });
+    return records;
+  }
+  function lazyRecords(owner, key, spec) {
+    const entry = { getter: undefined, spec: spec, read: false };
+    let records;
+    entry.getter = { [key]() {
+      if (!entry.read) {
+        entry.read = true;
+        records = materializeKept(spec);
+        if (ownDescriptor(owner, key).configurable) defineProperty(owner, key, { value: records, writable: true, enumerable: true, configurable: true });
+      }
+      return records;
+    } }[key];
+    const setter = { [key](v) {
+      entry.read = true;
+      defineProperty(owner, key, { value: v, writable: true, enumerable: true, configurable: true });
+    } }[key];
+    defineProperty(owner, key, { get: entry.getter, set: setter, enumerable: true, configurable: true });
+    let table = lazyGet(lazyTables, owner);
+    if (table === undefined) {
+      table = nullObject(null);
+      lazySet(lazyTables, owner, table);
+    }
+    table[key] = entry;
+  }
+  // The entry of owner[key] when it is still an unread record table, else undefined.
+  function unreadTable(owner, key) {
+    const table = lazyGet(lazyTables, owner);
+    if (table === undefined) return undefined;
+    const entry = table[key];
+    if (entry === undefined || entry.read) return undefined;
+    const d = ownDescriptor(owner, key);
+    return d !== undefined && d.get === entry.getter ? entry : undefined;
+  }
+
   function encode(value, where) {
-    const buffers = [], patches = [], path = [], containers = [];
+    const buffers = [], patches = [], path = [], containers = [], tables = [];
+    function recordTable(spec, depth) {
+      const columns = [];
+      for (let c = 0; c < spec.cols.length; c++) {
+        const col = spec.cols[c];
+        const bytes = col.f !== undefined ? col.f : col.runs;
+        buffers[buffers.length] = sliceBuffer(bytes.buffer, bytes.byteOffset, bytes.byteOffset + bytes.byteLength);
+        columns[c] = col.f !== undefined ? { f: buffers.length - 1 } : { s: col.s, runs: buffers.length - 1 };
+      }
+      tables[tables.length] = { n: spec.n, keys: spec.keys, columns: columns };
+      return patch(depth, { r: tables.length - 1 });
+    }
     function patch(depth, code) {
       const p = [];
       for (let j = 0; j < depth; j++) p[j] = path[j];
@@ -74,7 +193,11 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
         if (v - v === 0 && (v !== 0 || 1 / v > 0)) return v;
         return patch(depth, v !== v ? "NaN" : v === 0 ? "-0" : v > 0 ? "Infinity" : "-Infinity");
       }
-      if (type === "string" || type === "boolean" || v === null) return v;
+      if (type === "string") {
+        if (v.length >= TEXT_MIN) for (let i = 0; i < texts.length; i++) if (texts[i] === v) return patch(depth, "text:" + i);
+        return v;
+      }
+      if (type === "boolean" || v === null) return v;
       if (type === "undefined") return patch(depth, "undefined");
       if (type !== "object") {
         throw new TypeErr(fieldName(where, key) + " is " + describe(v) + "; only numbers, strings, booleans, null, arrays, plain objects and Float64Array can be passed");
@@ -100,11 +223,13 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
       containers[depth] = v;
       let out;
       if (array) {
+        const made = madeGet(madeFrom, v);
+        if (made !== undefined && unchangedTable(v, made)) return recordTable(made.spec, depth);
         out = [];
         const n = v.length;
         for (let i = 0; i < n; i++) {
           const e = v[i], t = typeof e;
-          if (t === "number" ? e - e === 0 && (e !== 0 || 1 / e > 0) : t === "string" || t === "boolean" || e === null) out[i] = e;
+          if (t === "number" ? e - e === 0 && (e !== 0 || 1 / e > 0) : t === "string" ? e.length < TEXT_MIN : t === "boolean" || e === null) out[i] = e;
           else {
             path[depth] = i;
             out[i] = walk(e, i, depth + 1);
@@ -113,12 +238,19 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
       } else {
         out = {};
         const ks = keysOf(v);
+        const lazy = lazyGet(lazyTables, v) !== undefined;
         for (let i = 0; i < ks.length; i++) {
           const k = ks[i];
           if (k === "__proto__") throw new TypeErr(fieldName(where, k) + " is a key named \"__proto__\", which cannot be passed; rename it");
+          const unread = lazy ? unreadTable(v, k) : undefined;
+          if (unread !== undefined) {
+            path[depth] = k;
+            out[k] = recordTable(unread.spec, depth + 1);
+            continue;
+          }
           const e = v[k], t = typeof e;
           let w = e;
-          if (!(t === "number" ? e - e === 0 && (e !== 0 || 1 / e > 0) : t === "string" || t === "boolean" || e === null)) {
+          if (!(t === "number" ? e - e === 0 && (e !== 0 || 1 / e > 0) : t === "string" ? e.length < TEXT_MIN : t === "boolean" || e === null)) {
             path[depth] = k;
             w = walk(e, k, depth + 1);
           }
@@ -128,25 +260,39 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
       return out;
     }
     const plain = walk(value, "", 0);
-    return [stringify([plain, patches]), buffers];
+    return [stringify(tables.length > 0 ? [plain, patches, tables] : [plain, patches]), buffers];
   }
 
   function decode(wire) {
     const both = parse(wire[0]);
     const patches = both[1];
     if (patches.length === 0) return both[0];
-    const buffers = wire[1];
+    const buffers = wire[1], tables = both[2];
     let root = both[0];
     for (let i = 0; i < patches.length; i += 2) {
       const path = patches[i], code = patches[i + 1];
-      const v = typeof code === "number" ? new F64A(buffers[code]) : code === "undefined" ? undefined : +code;
+      let spec;
+      if (typeof code === "object") {
+        const t = tables[code.r], cols = [];
+        for (let c = 0; c < t.columns.length; c++) {
+          const col = t.columns[c];
+          cols[c] = col.f !== undefined ? { f: new F64A(buffers[col.f]) } : { s: col.s, runs: new F64A(buffers[col.runs]) };
+        }
+        spec = { n: t.n, keys: t.keys, cols: cols };
+      }
       if (path.length === 0) {
-        root = v;
+        root = spec !== undefined ? materialize(spec) : typeof code === "number" ? new F64A(buffers[code]) : code === "undefined" ? undefined : +code;
         continue;
       }
       let node = root;
       for (let k = 0; k < path.length - 1; k++) node = node[path[k]];
-      setOwn(node, path[path.length - 1], v);
+      const key = path[path.length - 1];
+      if (spec !== undefined) {
+        if (isArray(node)) setOwn(node, key, materialize(spec));
+        else lazyRecords(node, key, spec);
+        continue;
+      }
+      setOwn(node, key, typeof code === "number" ? new F64A(buffers[code]) : code === "undefined" ? undefined : +code);
     }
     return root;
   }
@@ -553,8 +699,9 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     defineProperty(G, "Proxy", { value: SandboxProxy, ...method });
   }
 
-  // A data cell's table: the columns arrive as Float64Array (numeric columns, NaN for an empty field) or as arrays
-  // of field values; the records of rows are built from private copies the first time a cell reads rows.
+  // A data cell's table: numeric columns arrive as Float64Array (NaN for an empty field); a text column, the CSV
+  // text and the private copies the records of rows are built from are asked of the host when first read.
+  const part = host.part;
   function buildRows(columns, values, numeric, n) {
     const rows = [];
     for (let i = 0; i < n; i++) {
@@ -570,31 +717,45 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   function dataProperty(o, k, v) {
     defineProperty(o, k, { value: v, writable: true, enumerable: true, configurable: true });
   }
-  function defineTable(name, wire, csv) {
+  // o[k] as an accessor that computes its value once, on first read, and then becomes a plain data property.
+  function lazyProperty(o, k, compute) {
+    defineProperty(o, k, {
+      get: { [k]() {
+        const v = compute();
+        dataProperty(o, k, v);
+        return v;
+      } }[k],
+      set: { [k](v) { dataProperty(o, k, v); } }[k],
+      enumerable: true,
+      configurable: true,
+    });
+  }
+  function defineTable(name, index, wire) {
     const data = decode(wire);
-    const columns = data.columns, values = data.values, n = data.length;
-    const numeric = [], own = [];
+    const columns = data.columns, numericValues = data.numeric, n = data.length;
+    const numeric = [];
     const byColumn = {};
+    const column = (c) => decode(part(index, c));
     for (let c = 0; c < columns.length; c++) {
-      const isNumeric = values[c] instanceof F64A;
+      const isNumeric = numericValues[c] !== null;
       push(numeric, isNumeric);
-      push(own, isNumeric ? sliceF64(values[c]) : sliceArray(values[c]));
-      setOwn(byColumn, columns[c], values[c]);
+      if (isNumeric) setOwn(byColumn, columns[c], numericValues[c]);
+      else if (columns[c] === "__proto__") setOwn(byColumn, columns[c], column(c));
+      else lazyProperty(byColumn, columns[c], () => column(c));
     }
     const table = {};
     dataProperty(table, "name", name);
     dataProperty(table, "columns", sliceArray(columns));
-    defineProperty(table, "rows", {
-      get: function rows() {
-        const r = buildRows(columns, own, numeric, n);
-        dataProperty(table, "rows", r);
-        return r;
-      },
-      set: function rows(r) { dataProperty(table, "rows", r); },
-      enumerable: true,
-      configurable: true,
+    lazyProperty(table, "rows", () => {
+      const own = [];
+      for (let c = 0; c < columns.length; c++) push(own, column(c));
+      return buildRows(columns, own, numeric, n);
     });
-    dataProperty(table, "csv", csv);
+    lazyProperty(table, "csv", () => {
+      const text = part(index, -1);
+      texts[index] = text;
+      return text;
+    });
     dataProperty(table, "byColumn", byColumn);
     defineProperty(G, name, { value: table, writable: false, enumerable: true, configurable: false });
   }

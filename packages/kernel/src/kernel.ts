@@ -15,11 +15,12 @@ import { chartDataNames, chartRecords, fillChartData } from "./chart-cells.js";
 import { controlValue, type ControlRecord, type RecordedControl } from "./controls.js";
 import { dataCellText, DataCellError, parseDataTable, type ReadFile } from "./data-cells.js";
 import { chartOutput, displayToOutputs } from "./displays.js";
+import { HostTimeLimitError, hostCheckpoint, withHostDeadline } from "./host-budget.js";
 import { newWasmMemory, type WasmMemory } from "./wasm-memory.js";
 import { HOST_RESERVE_MB, SANDBOX_BASE_MB, limitsFor, type RunLimits } from "./limits.js";
 import { abortMessage, cellFilename, errorLocation } from "./locations.js";
 import { Sandbox, STACK_LIMIT_BYTES, type GuestError } from "./sandbox.js";
-import { CellSyntaxError, stripTypes } from "./strip-types.js";
+import { CellSyntaxError, stripTypesCached, type StripCache } from "./strip-types.js";
 
 /** Status of an executable cell after a run. */
 export type CellStatus = "ok" | "error" | "not-run";
@@ -92,6 +93,8 @@ export interface KernelOptions {
    * aborted by a limit, so that the wasm memory a runaway cell grew is released.
    */
   loadModule?: ModuleLoader;
+  /** Keeps stripped cells between runs by their source (the CLI keeps them on disk); none by default. */
+  stripCache?: StripCache;
 }
 
 /** Runs documents; keeps the loaded QuickJS module between runs. */
@@ -168,7 +171,7 @@ export function createKernel(options: KernelOptions = {}): Kernel {
       return performance.now() - t0;
     },
     async runDocument(doc, runOptions = {}) {
-      const result = await runWithModule(await getModule(limitsFor(doc.header).memoryLimitMb), doc, runOptions);
+      const result = await runWithModule(await getModule(limitsFor(doc.header).memoryLimitMb), doc, runOptions, options.stripCache);
       // A fresh module after an abort, or after a run that grew the memory past half its limit: wasm memory never
       // shrinks, and the next run should start with its whole allowance.
       const grown = result.result.memory.peakBytes > (SANDBOX_BASE_MB + result.result.limits.memoryLimitMb / 2) * MIB;
@@ -185,6 +188,7 @@ async function runWithModule(
   { module: mod, wasmMaxBytes }: LoadedModule,
   doc: ConebookDocument,
   options: RunOptions,
+  stripCache: StripCache | undefined,
 ): Promise<{ result: RunResult; aborted: boolean }> {
   const tStart = performance.now();
   const limits = limitsFor(doc.header);
@@ -235,7 +239,7 @@ async function runWithModule(
       } else {
         current = { cell, outputs: [] };
         options.onCellStart?.({ cellId: cell.id, index, total: cells.length, timeLimitMs: limits.timeLimitMs });
-        const error = await runCell(sandbox, cell, limits, options.readFile, current.outputs, dataTexts);
+        const error = await runCell(sandbox, cell, limits, options.readFile, current.outputs, dataTexts, stripCache);
         outputs[cell.id] = current.outputs;
         if (error) {
           current.outputs.push(error);
@@ -289,6 +293,7 @@ async function runCell(
   readFile: ReadFile | undefined,
   outputs: CellOutput[],
   dataTexts: Map<string, (line: number) => string>,
+  stripCache: StripCache | undefined,
 ): Promise<ErrorOutput | undefined> {
   const fileLine = (line: number) => cell.sourceStart.line + line - 1;
   const fileColumn = (line: number, column: number) => (line === 1 ? cell.sourceStart.column + column - 1 : column);
@@ -307,7 +312,7 @@ async function runCell(
     if (cell.kind === "code") {
       let stripped;
       try {
-        stripped = stripTypes(cell.source);
+        stripped = stripTypesCached(cell.source, stripCache);
       } catch (e) {
         if (!(e instanceof CellSyntaxError)) throw e;
         return { type: "error", message: `SyntaxError: ${e.message}`, line: fileLine(e.line), column: fileColumn(e.line, e.column) };
@@ -324,7 +329,16 @@ async function runCell(
       const text = await dataCellText(cell, readFile);
       const path = cell.file?.path;
       dataTexts.set(text, path !== undefined ? (line) => `${path}:${line}` : (line) => `data cell ${cell.id}, line ${fileLine(line)} of the document`);
-      const table = parseDataTable(cell.name, text, cell.file ? 1 : cell.sourceStart.line);
+      // The host's reading of the CSV counts against the cell's time limit like the cell's own work would.
+      let table;
+      try {
+        table = withHostDeadline(Date.now() + limits.timeLimitMs, () =>
+          parseDataTable(cell.name, text, cell.file ? 1 : cell.sourceStart.line, hostCheckpoint(`data "${cell.name}"`)),
+        );
+      } catch (e) {
+        if (!(e instanceof HostTimeLimitError)) throw e;
+        return { type: "error", message: abortMessage(cell.id, "time", limits, STACK_LIMIT_BYTES), line: cell.sourceStart.line };
+      }
       const outcome = sandbox.defineTable(table, limits.timeLimitMs);
       if (!outcome.ok) return guestErrorOutput(cell, outcome.error, limits);
       return undefined;

@@ -35,6 +35,11 @@ export const MAX_ELEMENTS_PER_CALL = 2 ** 24;
 export const WORK_CHECK_UNITS = 2 ** 20;
 /** Most keys a Proxy's ownKeys trap may return (the engine's duplicate check is quadratic: 10,000 keys take about 25 ms). */
 export const MAX_PROXY_KEYS = 10_000;
+/**
+ * Length from which a string a cell passes to the host is first compared with the data tables' CSV texts: one that
+ * is a table's text crosses as a reference to the host's own copy instead of as characters (about 3 ms for 30 MB).
+ */
+export const TEXT_REFERENCE_MIN_LENGTH = 4096;
 /** WebAssembly memory the engine needs before a cell allocates anything (its initial memory), MiB. */
 export const SANDBOX_BASE_MB = 16;
 /**

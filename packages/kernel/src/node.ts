@@ -4,7 +4,6 @@
  */
 import { readFile, realpath } from "node:fs/promises";
 import { isAbsolute, relative, resolve } from "node:path";
-import type { ReadFile } from "./data-cells.js";
 import { createKernel, type Kernel } from "./kernel.js";
 
 /** A kernel with the default (release-sync) module. */
@@ -16,7 +15,7 @@ export function createNodeKernel(): Kernel {
  * A ReadFile for data cells: paths are relative to `baseDir` and must stay inside it, also after following
  * symbolic links (the real path of the file must lie inside the real path of the folder).
  */
-export function fileReaderFor(baseDir: string): ReadFile {
+export function fileReaderFor(baseDir: string): (path: string) => Promise<Uint8Array> {
   return async (path) => {
     const full = resolve(baseDir, path);
     const rel = relative(resolve(baseDir), full);

@@ -22,7 +22,7 @@
 import type { QuickJSContext, QuickJSHandle, QuickJSRuntime, QuickJSWASMModule } from "quickjs-emscripten-core";
 import { BRIDGE_API } from "./bridge-api.js";
 import { HostTimeLimitError, withHostDeadline } from "./host-budget.js";
-import { HOST_RESERVE_MB, MAX_ELEMENTS_PER_CALL, MAX_PROXY_KEYS, SANDBOX_BASE_MB, WORK_CHECK_UNITS } from "./limits.js";
+import { HOST_RESERVE_MB, MAX_ELEMENTS_PER_CALL, MAX_PROXY_KEYS, SANDBOX_BASE_MB, TEXT_REFERENCE_MIN_LENGTH, WORK_CHECK_UNITS } from "./limits.js";
 import type { DataTable } from "./data-cells.js";
 import { GUEST_PRELUDE, GUEST_PRELUDE_FILENAME } from "./guest-prelude.js";
 import { ArgumentError } from "./validators.js";
@@ -120,6 +120,8 @@ export class Sandbox {
   private readonly softCapBytes: number;
   /** The memory cannot grow past this, bytes. */
   readonly capBytes: number;
+  /** The data tables defined so far, by the index the guest knows them by (their parts are sent when read). */
+  private readonly tables: DataTable[] = [];
   /** True after an abort: the runtime may be in a bad state; dispose it. */
   broken = false;
   hooks: SandboxHooks;
@@ -178,14 +180,17 @@ export class Sandbox {
     const emit = ctx.newFunction("emit", (jsonH, buffersH) => this.hostEmit(jsonH, buffersH));
     const control = ctx.newFunction("control", (jsonH, buffersH) => this.hostControl(jsonH, buffersH));
     const overdue = ctx.newFunction("overdue", () => (this.overdue() ? ctx.true : ctx.false));
+    const part = ctx.newFunction("part", (indexH, whichH) => this.hostTablePart(indexH, whichH));
     ctx.setProp(host, "call", call);
     ctx.setProp(host, "emit", emit);
     ctx.setProp(host, "control", control);
     ctx.setProp(host, "overdue", overdue);
+    ctx.setProp(host, "part", part);
     call.dispose();
     emit.dispose();
     control.dispose();
     overdue.dispose();
+    part.dispose();
     const names = Object.keys(BRIDGE_API);
     const configJson = JSON.stringify({
       seed,
@@ -194,6 +199,7 @@ export class Sandbox {
       maxElements: MAX_ELEMENTS_PER_CALL,
       workCheck: WORK_CHECK_UNITS,
       maxProxyKeys: MAX_PROXY_KEYS,
+      textReferenceMin: TEXT_REFERENCE_MIN_LENGTH,
     });
     const config = ctx.unwrapResult(ctx.evalCode(`(${configJson})`, GUEST_PRELUDE_FILENAME));
     const result = ctx.callFunction(preludeFn, ctx.undefined, host, config);
@@ -252,7 +258,7 @@ export class Sandbox {
     const entry = Object.hasOwn(BRIDGE_API, guestName) ? BRIDGE_API[guestName] : undefined;
     try {
       if (!entry) throw new ArgumentError(`${guestName} is not an available function`);
-      const args = decodeWireValue(this.readWire(jsonH, buffersH)) as unknown[];
+      const args = decodeWireValue(this.readWire(jsonH, buffersH), this.tableTexts) as unknown[];
       if (args.length > entry.args.length) {
         throw new ArgumentError(`${guestName} takes ${entry.args.length} argument(s) (${entry.args.map((a) => a.name).join(", ")}), got ${args.length}`);
       }
@@ -268,6 +274,32 @@ export class Sandbox {
         this.forcedAbort = "time";
       }
       return { error: ctx.newError(bridgeErrorMessage(guestName, e)) };
+    }
+  }
+
+  /** The CSV text of every table, by table index: a text reference from the guest names one of these. */
+  private readonly tableTexts = (index: number): string | undefined => this.tables[index]?.csv;
+
+  /**
+   * A part of data table `index` that a cell reads for the first time: column `which` (its values, a fresh copy)
+   * or, for -1, the CSV text. Sent only when read, so a large record that only goes to an importer as text never
+   * crosses as columns, and one that is read by columns never crosses as text.
+   */
+  private hostTablePart(indexH: QuickJSHandle, whichH: QuickJSHandle) {
+    const ctx = this.context;
+    try {
+      const table = this.tables[ctx.getNumber(indexH)];
+      const which = ctx.getNumber(whichH);
+      if (!table) throw new Error("no such data table");
+      if (which === -1) {
+        this.ensureRoom(3 * table.csv.length);
+        return ctx.newString(table.csv);
+      }
+      const column = table.values[which];
+      if (!column) throw new Error("no such column");
+      return this.newWire(column instanceof Float64Array ? column.slice() : column);
+    } catch (e) {
+      return { error: ctx.newError(errorMessage(e)) };
     }
   }
 
@@ -389,20 +421,23 @@ export class Sandbox {
 
   /**
    * Defines the read-only global `table.name` holding a data cell's table (`{ name, columns, rows, csv, byColumn }`,
-   * see data-cells.ts). Columns cross as bytes (Float64Array) or JSON; the CSV text crosses as one string.
+   * see data-cells.ts). Only the names and the numeric columns (as bytes) cross now; text columns, the CSV text and
+   * the copies `rows` is built from cross when a cell first reads them (hostTablePart).
    */
   defineTable(table: DataTable, timeLimitMs: number): Outcome<unknown> {
     return this.guarded(() => {
       const ctx = this.context;
-      this.ensureRoom(3 * table.csv.length);
+      const index = this.tables.length;
+      this.tables.push(table);
       // newWire checks its own room before it makes a handle, so nothing is left undisposed when it throws.
-      const wire = this.newWire({ columns: table.columns, values: table.values, length: table.length });
+      const numeric = table.values.map((v) => (v instanceof Float64Array ? v : null));
+      const wire = this.newWire({ columns: table.columns, numeric, length: table.length });
       const nameH = ctx.newString(table.name);
-      const csvH = ctx.newString(table.csv);
-      const outcome = this.callInternal("defineTable", [nameH, wire, csvH], timeLimitMs);
+      const indexH = ctx.newNumber(index);
+      const outcome = this.callInternal("defineTable", [nameH, indexH, wire], timeLimitMs);
       nameH.dispose();
+      indexH.dispose();
       wire.dispose();
-      csvH.dispose();
       return outcome;
     });
   }

@@ -54,11 +54,55 @@ function decodeMappings(mappings: string): [number, number][][] {
   return lines;
 }
 
+/** A stripped cell as it can be kept between runs: the JavaScript and sucrase's source-map mappings. */
+export interface StrippedForm {
+  code: string;
+  mappings: string;
+}
+
+/**
+ * Stripped cells kept by their source (a host may keep them on disk, keyed by a hash of the source): a hit skips
+ * sucrase, whose first transforms in a fresh process run unoptimized. A cache must return exactly what `set` got.
+ */
+export interface StripCache {
+  get(source: string): StrippedForm | undefined;
+  set(source: string, form: StrippedForm): void;
+}
+
+/** The StrippedCell of a kept form (the same as stripTypes gave when the form was made). */
+export function strippedFrom(form: StrippedForm): StrippedCell {
+  const lines = decodeMappings(form.mappings);
+  return {
+    code: form.code,
+    sourceColumn(line, column) {
+      const segments = lines[line - 1];
+      if (!segments || segments.length === 0) return column;
+      let best: [number, number] | undefined;
+      for (const seg of segments) if (seg[0] <= column - 1) best = seg;
+      if (!best) return column;
+      return best[1] + (column - 1 - best[0]) + 1;
+    },
+  };
+}
+
+/** stripTypes through `cache`: a kept form when there is one, else sucrase, whose result is then kept. */
+export function stripTypesCached(source: string, cache: StripCache | undefined): StrippedCell {
+  const kept = cache?.get(source);
+  if (kept !== undefined) return strippedFrom(kept);
+  const form = stripTypesForm(source);
+  cache?.set(source, form);
+  return strippedFrom(form);
+}
+
 /**
  * Strips TypeScript from a cell's source. Throws CellSyntaxError (line and column in the cell) when the
  * source does not parse.
  */
 export function stripTypes(source: string): StrippedCell {
+  return strippedFrom(stripTypesForm(source));
+}
+
+function stripTypesForm(source: string): StrippedForm {
   let result;
   try {
     result = transform(source, {
@@ -73,16 +117,5 @@ export function stripTypes(source: string): StrippedCell {
     // sucrase reports the column 1-based (checked: ";" at index 10 of "const b = ;" is reported as column 11).
     throw new CellSyntaxError(message, err.loc?.line ?? 1, err.loc?.column ?? 1);
   }
-  const lines = decodeMappings(result.sourceMap?.mappings ?? "");
-  return {
-    code: result.code,
-    sourceColumn(line, column) {
-      const segments = lines[line - 1];
-      if (!segments || segments.length === 0) return column;
-      let best: [number, number] | undefined;
-      for (const seg of segments) if (seg[0] <= column - 1) best = seg;
-      if (!best) return column;
-      return best[1] + (column - 1 - best[0]) + 1;
-    },
-  };
+  return { code: result.code, mappings: result.sourceMap?.mappings ?? "" };
 }

@@ -12,9 +12,9 @@
  *                and is not compared separately
  *   kinds        an output of another type (for example an error where a value was recorded) is one difference
  */
-import { describeUtf8Problem, sha256Hex, utf8Problem } from "@conebook/document";
+import { describeUtf8Problem, utf8Problem } from "@conebook/document";
 import type { CellOutput, ConebookDocument } from "@conebook/document";
-import type { ReadFile } from "./data-cells.js";
+import { hashedBytes, type HashedBytes, type ReadFile } from "./data-cells.js";
 
 /**
  * Default relative tolerance of `compareOutputs`. Arithmetic inside the sandbox is bit-identical on every host
@@ -227,7 +227,10 @@ export interface PinCheck {
   reason?: string;
 }
 
-/** Reads every data file the document pins and compares its SHA-256 (FIPS 180-4) with the pin. */
+/**
+ * Reads every data file the document pins and compares its SHA-256 (FIPS 180-4, the platform's implementation
+ * unless the reader returns the digest with the bytes) with the pin.
+ */
 export async function checkDataPins(doc: ConebookDocument, readFile: ReadFile): Promise<PinCheck[]> {
   const checks: PinCheck[] = [];
   for (const cell of doc.cells) {
@@ -239,15 +242,15 @@ export async function checkDataPins(doc: ConebookDocument, readFile: ReadFile): 
       line: (cell.origin?.start ?? cell.sourceStart).line,
       pinned: cell.file.sha256.toLowerCase(),
     };
-    let bytes: Uint8Array;
+    let read: HashedBytes;
     try {
-      bytes = await readFile(cell.file.path);
+      read = await hashedBytes(await readFile(cell.file.path));
     } catch (e) {
       checks.push({ ...base, status: "unreadable", reason: e instanceof Error ? e.message : String(e) });
       continue;
     }
-    const actual = sha256Hex(bytes);
-    const problem = actual === base.pinned ? utf8Problem(bytes) : undefined;
+    const actual = read.sha256;
+    const problem = actual === base.pinned ? utf8Problem(read.bytes) : undefined;
     if (problem) checks.push({ ...base, actual, status: "not-utf8", reason: describeUtf8Problem(problem) });
     else checks.push({ ...base, actual, status: actual === base.pinned ? "ok" : "changed" });
   }

@@ -139,6 +139,25 @@ describe("limits inside host calls", () => {
     expect(ms).toBeLessThan(100 + 1500);
   });
 
+  it("stops one import of a long record inside the host's reading at the cell's time limit", async () => {
+    // 400,000 readings all at t = 1: read to the end, the import would refuse the repeated times with a CsvError.
+    const options = '{ timeColumn: "t", valueColumn: "s", timeUnit: "min", lengthUnit: "m", radius: { value: 10, unit: "m" }, pumpingRate: { value: 100, unit: "m3/d" } }';
+    const r = await kernel.runDocument(makeDoc(['const text = "t,s\\n" + "1,0.5\\n".repeat(400000);', `aq.parseObservationCsv(text, ${options})`, "1"], { timeLimitMs: 60 }));
+    expect(r.status.c1).toBe("ok");
+    expect(r.outputs.c2![0]).toMatchObject({ type: "error", message: expect.stringContaining("Cell c2 was stopped after running for its time limit of 60 ms.") });
+    expect(r.status.c3).toBe("not-run");
+    expect(r.timings.cells.c2!).toBeLessThan(60 + 1500);
+  });
+
+  it("stops the host's reading of a data cell's CSV at the cell's time limit", async () => {
+    const csv = ["t,s", ...Array.from({ length: 400_000 }, (_, i) => `${i},${i}`)].join("\n");
+    const t0 = performance.now();
+    const r = await kernel.runDocument(makeDoc([{ kind: "data", name: "big", source: csv }, "1"], { timeLimitMs: 20 }));
+    expect(r.outputs.c1![0]).toMatchObject({ type: "error", message: expect.stringContaining("Cell c1 was stopped after running for its time limit of 20 ms.") });
+    expect(r.status.c2).toBe("not-run");
+    expect(performance.now() - t0).toBeLessThan(20 + 1500);
+  });
+
   it("does not let a cell catch the stop of a host call at its time limit", async () => {
     const times = "Array.from({ length: 40 }, (_, i) => 0.01 * (i + 1))";
     const { out } = await runCell(`try { aq.forecastDrawdown({ ${given}, ${scheme}, times: ${times}, uncertainty: { monteCarlo: { samples: 10000, seed: 1 } } }) } catch (e) {} "escaped"`, { timeLimitMs: 100 });

@@ -1,17 +1,17 @@
 /**
  * Benchmarks of the kernel: sandbox start, a full rerun of the worked demo document, the cost of calling a fit
- * through the bridge against calling it directly, and a document that handles a 100,000-reading logger record.
+ * through the bridge against calling it directly, and a 1,000-element array in and out of a bridge call. (Logger
+ * documents of 1e3 to 1e6 readings are measured through the command line, sections/cli.ts.)
  * Every figure is checked: the runs must succeed and give the numbers the direct calls give.
  */
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { dirname } from "node:path";
-import { fitModel, theisDrawdown, theisModel } from "@conebook/aquifer";
+import { convertArray, fitModel, theisModel } from "@conebook/aquifer";
 import { parseDocument, type CellOutput, type ConebookDocument } from "@conebook/document";
 import { createKernel, type Kernel, type RunResult } from "@conebook/kernel";
 import { fileReaderFor } from "@conebook/kernel/node";
-import { bestOfAsync, type Measurement } from "../harness.js";
-import { uniformGenerator } from "../../support/seeded-noise.js";
+import { bestOfAsync, measure, medianSample, pairedRounds, type Measurement, type Sample } from "../harness.js";
 
 interface FixtureWell { name: string; r: number; Q: number; t: number[]; s: number[] }
 interface FixtureDataset { id: string; start: { T: number; S: number }; wells: FixtureWell[] }
@@ -72,7 +72,8 @@ function csvOf(t: readonly number[], s: readonly number[]): string {
 /**
  * The 1,000-point Theis fit of tests/fixtures/fit/theis-fits.json from a cell against the same call in Node.
  * The cell fits REPEATS times in a loop, so the per-fit figure is the cell's time over REPEATS (strip, evaluate
- * and the copies of data both ways included).
+ * and the copies of data both ways included). Rounds alternate which side goes first; the figure is the median of
+ * the per-round ratios.
  */
 async function fitThroughBridge(kernel: Kernel): Promise<Measurement> {
   const fixture = JSON.parse(readFileSync(FIT_FIXTURE, "utf8")) as { datasets: FixtureDataset[] };
@@ -80,20 +81,18 @@ async function fitThroughBridge(kernel: Kernel): Promise<Measurement> {
   if (!dataset) throw new Error("tests/fixtures/fit/theis-fits.json has no 'thousand-point' data set");
   const well = dataset.wells[0]!;
   const REPEATS = 20;
-  // Batches on each side: enough that the best of them is stable on a machine shared with other work.
-  const BATCHES = 15;
+  const ROUNDS = 15;
   const tolerances = { ftol: 1e-10, xtol: 1e-10, gtol: 1e-10 };
   const wells = [{ name: well.name, geometry: { r: well.r, Q: well.Q }, t: Float64Array.from(well.t), s: Float64Array.from(well.s) }];
   const options = { model: theisModel, wells, start: dataset.start, ...tolerances };
-  // Measured as the cell is: the mean of REPEATS consecutive fits. Direct batches and document runs alternate,
-  // so that a change in the machine's load affects both sides alike; the best of BATCHES of each is kept.
-  const directBatch = (): number => {
-    const t0 = performance.now();
-    let last = fitModel(options);
-    for (let i = 1; i < REPEATS; i++) last = fitModel(options);
-    const ms = performance.now() - t0;
-    if (last.n !== 1000) throw new Error(`direct fit used ${last.n} points`);
-    return ms / REPEATS;
+  const direct = (): Sample => {
+    const s = measure(() => {
+      let last = fitModel(options);
+      for (let i = 1; i < REPEATS; i++) last = fitModel(options);
+      return last;
+    });
+    if (s.result.n !== 1000) throw new Error(`direct fit used ${s.result.n} points`);
+    return { wallMs: s.wallMs / REPEATS, cpuMs: s.cpuMs / REPEATS };
   };
   const directT = fitModel(options).parameters[0]!.estimate;
 
@@ -102,123 +101,104 @@ async function fitThroughBridge(kernel: Kernel): Promise<Measurement> {
       "---\nconebook: 1\ntitle: bridge fit benchmark\nseed: 1\nlimits:\n  cellTimeMs: 60000\n---\n",
       "```csv data:record name=rec\n" + csvOf(well.t, well.s) + "\n```\n",
       "```ts code:well\n" +
-        `const wells = [{ name: ${JSON.stringify(well.name)}, geometry: { r: ${well.r}, Q: ${well.Q} }, t: Float64Array.from(rec.rows, (x) => x.t), s: Float64Array.from(rec.rows, (x) => x.s) }];\n` +
+        `const wells = [{ name: ${JSON.stringify(well.name)}, geometry: { r: ${well.r}, Q: ${well.Q} }, t: rec.byColumn.t, s: rec.byColumn.s }];\n` +
         "```\n",
       "```ts code:fit\n" +
         `let fit;\nfor (let i = 0; i < ${REPEATS}; i++) fit = aq.fitModel({ model: "theis", wells, start: ${JSON.stringify(dataset.start)}, ${JSON.stringify(tolerances).slice(1, -1)} });\n` +
         "show.value(fit.parameters[0].estimate, \"m2/d\", \"T\")\n```\n",
     ].join("\n"),
   );
-  let best = Infinity;
-  let directMs = Infinity;
-  for (let i = 0; i < BATCHES; i++) {
-    directMs = Math.min(directMs, directBatch());
+  const throughCell = async (): Promise<Sample> => {
+    const cpu0 = process.cpuUsage();
     const run = await kernel.runDocument(doc);
+    const cpu = process.cpuUsage(cpu0);
     requireOk(run, "bridge fit document");
     const T = firstValue(run.outputs.fit, "bridge fit document");
     if (!Object.is(T, directT)) throw new Error(`the fit from a cell gave T = ${T}, the direct fit ${directT}; the bridge must not change numbers`);
-    best = Math.min(best, run.timings.cells.fit! / REPEATS);
+    // The CPU time of the whole run, scaled by the fit cell's share of its wall time.
+    const share = run.timings.cells.fit! / run.timings.totalMs;
+    return { wallMs: run.timings.cells.fit! / REPEATS, cpuMs: ((cpu.user + cpu.system) / 1000) * share / REPEATS };
+  };
+  for (let i = 0; i < 3; i++) {
+    direct();
+    await throughCell();
   }
+  const { here, peer, paired } = await pairedRounds(ROUNDS, throughCell, direct);
+  const h = medianSample(here);
+  const p = medianSample(peer);
   return {
     name: "Theis fit of 1,000 points from a cell (per fit)",
-    value: best,
+    value: h.wallMs,
+    cpu: h.cpuMs,
     unit: "ms",
-    peer: directMs,
+    peer: p.wallMs,
+    peerCpu: p.cpuMs,
     peerName: "same fitModel call in Node",
+    paired,
     target: { ratio: 1.1 },
-    note: `T identical to the direct fit (${directT.toPrecision(10)} m2/d); mean of ${REPEATS} consecutive fits, best of ${BATCHES} batches on both sides, interleaved`,
+    note: `T identical to the direct fit (${directT.toPrecision(10)} m2/d); each round the mean of ${REPEATS} consecutive fits on each side`,
   };
 }
 
-
 /**
- * An invented logger record: 100,000 depth-to-water readings at a fixed interval over 2 days below a static
- * depth of 8.20 m, Theis drawdown for T = 250 m2/d, S = 2e-4, Q = 900 m3/d, r = 40 m, plus 4 mm of Gaussian noise
- * (Box-Muller on mulberry32, seed 7). Elapsed time in min.
+ * A 1,000-element Float64Array into the sandbox's bridge and back (aq.convertArray from m to ft), per call, from a
+ * cell that makes CALLS calls, beside the same call in Node. Checked: the last result equals the direct one.
  */
-function loggerCsv(rows: number): string {
-  const random = uniformGenerator(7);
-  const lines = ["elapsed_min,depth_to_water_m"];
-  const dtMin = 2880 / rows;
-  for (let i = 1; i <= rows; i++) {
-    const tMin = i * dtMin;
-    const noise = Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random()) * 0.004;
-    lines.push(`${tMin.toFixed(4)},${(8.2 + theisDrawdown(250, 2e-4, 900, 40, tMin / 1440) + noise).toFixed(4)}`);
-  }
-  return lines.join("\n");
-}
-
-/** Imports, corrects for the static level, thins, fits and charts a 100,000-reading record in one document. */
-async function largeRecord(kernel: Kernel): Promise<Measurement[]> {
-  const ROWS = 100_000;
+async function arrayThroughBridge(kernel: Kernel): Promise<Measurement> {
+  const CALLS = 2000;
+  const ROUNDS = 9;
+  const x = Float64Array.from({ length: 1000 }, (_, i) => 0.5 + i * 0.01);
+  const expected = convertArray(x, "m", "ft");
   const doc = parsed(
-    [
-      "---\nconebook: 1\ntitle: large logger record benchmark\nseed: 1\nlimits:\n  cellTimeMs: 60000\n  memoryMb: 512\n---\n",
-      "```csv data:logger name=logger\n" + loggerCsv(ROWS) + "\n```\n",
-      "```ts code:analyse\n" +
-        [
-          "const imported = aq.parseObservationCsv(logger.csv, { name: \"OB-L\", timeColumn: \"elapsed_min\", valueColumn: \"depth_to_water_m\",",
-          "  timeUnit: \"min\", kind: \"depth-to-water\", lengthUnit: \"m\", staticLevel: 8.2, radius: { value: 40, unit: \"m\" }, pumpingRate: { value: 900, unit: \"m3/d\" } });",
-          "const thinned = aq.logResample(imported.series, { pointsPerDecade: 20 });",
-          "const base = aq.toBaseUnits(thinned.series);",
-          "const fit = aq.fitModel({ model: \"theis\", wells: [base] });",
-          "const model = aq.drawdown(\"theis\", { T: fit.parameters[0].estimate, S: fit.parameters[1].estimate }, { r: base.r, Q: base.Q }, base.t);",
-          "show(charts.logLogDrawdown({ t: base.t, s: base.s, model: { t: base.t, s: model, label: \"Theis\" } }));",
-          "show(show.fit(fit));",
-          "show.value(thinned.kept, \"1\", \"readings kept\")",
-        ].join("\n") +
-        "\n```\n",
-    ].join("\n"),
+    "---\nconebook: 1\ntitle: bridge array benchmark\nseed: 1\n---\n\n```ts code:calls\n" +
+      "const x = Float64Array.from({ length: 1000 }, (_, i) => 0.5 + i * 0.01);\n" +
+      `let y;\nfor (let i = 0; i < ${CALLS}; i++) y = aq.convertArray(x, "m", "ft");\n` +
+      "show.json(Array.from(y.subarray(995)))\n```\n",
   );
-  // Memory on the first run of this document: the growth of the process's peak resident set over its resident
-  // set just before. When that run sets no new peak, the old peak bounds it from above.
-  const rssBefore = process.memoryUsage().rss;
-  const peakBefore = process.resourceUsage().maxRSS * 1024; // maxRSS is in KiB
-  requireOk(await kernel.runDocument(doc), "large record document");
-  const peakAfter = process.resourceUsage().maxRSS * 1024;
-  const newPeak = peakAfter > peakBefore;
-  const growthMb = (peakAfter - rssBefore) / 2 ** 20;
-  let ms = Infinity;
-  let run: RunResult | undefined;
-  for (let i = 0; i < 2; i++) {
-    const t0 = performance.now();
-    run = await kernel.runDocument(doc);
-    ms = Math.min(ms, performance.now() - t0);
-  }
-  if (!run) throw new Error("large record document did not run");
-  requireOk(run, "large record document");
-  const cellMs = (id: string) => run!.timings.cells[id]!.toFixed(0);
-  const fit = run.outputs.analyse?.find((o) => o.type === "table");
-  const T = fit && fit.type === "table" ? (fit.rows[0]![1] as number) : NaN;
-  if (!(Math.abs(T - 250) < 5)) throw new Error(`large record: fitted T = ${T} m2/d, expected about the generating 250 m2/d`);
-  const kept = firstValue(run.outputs.analyse, "large record document");
-  return [
-    {
-      name: `document with a ${ROWS.toLocaleString("en")}-reading logger record: import, correct, thin, fit, chart`,
-      value: ms,
-      unit: "ms",
-      target: { absolute: 2000 },
-      note:
-        `best of 2 runs, sandbox start included (last run: data cell ${cellMs("logger")} ms, analysis cell ${cellMs("analyse")} ms); ` +
-        `${kept} readings kept at 20 per decade; fitted T = ${T.toPrecision(5)} m2/d (generated with 250)`,
-    },
-    {
-      name: "peak memory growth of that document's run",
-      value: growthMb,
-      unit: "MB",
-      target: { absolute: 300 },
-      note:
-        "process.resourceUsage().maxRSS after the document's first run minus process.memoryUsage().rss before it (whole Node " +
-        `process, QuickJS wasm memory included); ${newPeak ? "the run set a new peak, so this is its peak growth" : "the run set no new peak, so this is an upper bound"}`,
-    },
-  ];
+  const throughCell = async (): Promise<Sample> => {
+    const cpu0 = process.cpuUsage();
+    const run = await kernel.runDocument(doc);
+    const cpu = process.cpuUsage(cpu0);
+    requireOk(run, "bridge array document");
+    const shown = run.outputs.calls?.find((o) => o.type === "json");
+    const tail = shown && shown.type === "json" ? (shown.value as number[]) : [];
+    if (!tail.every((v, i) => Object.is(v, expected[995 + i]))) throw new Error("the array that came back from the bridge differs from the direct result");
+    const share = run.timings.cells.calls! / run.timings.totalMs;
+    return { wallMs: (run.timings.cells.calls! * 1000) / CALLS, cpuMs: (((cpu.user + cpu.system) / 1000) * share * 1000) / CALLS };
+  };
+  const direct = (): Sample => {
+    const s = measure(() => {
+      let y = convertArray(x, "m", "ft");
+      for (let i = 1; i < CALLS; i++) y = convertArray(x, "m", "ft");
+      return y;
+    });
+    if (s.result[999] !== expected[999]) throw new Error("direct convertArray changed its result");
+    return { wallMs: (s.wallMs * 1000) / CALLS, cpuMs: (s.cpuMs * 1000) / CALLS };
+  };
+  await throughCell();
+  direct();
+  const { here, peer, paired } = await pairedRounds(ROUNDS, throughCell, direct);
+  const h = medianSample(here);
+  const p = medianSample(peer);
+  return {
+    name: "1,000-element Float64Array into a bridge call and back (per call)",
+    value: h.wallMs,
+    cpu: h.cpuMs,
+    unit: "us",
+    peer: p.wallMs,
+    peerCpu: p.cpuMs,
+    peerName: "same convertArray call in Node",
+    paired,
+    target: { absolute: 20 },
+    note: `aq.convertArray(x, "m", "ft") ${CALLS} times in one cell (encode, copy in, host call, copy out, decode); the last values checked against the direct call`,
+  };
 }
 
 /** The kernel's benchmark figures, in the order printed. */
 export async function kernelBenchmarks(): Promise<Measurement[]> {
   const kernel = createKernel();
   try {
-    return [await sandboxStart(kernel), await demoRerun(kernel), await fitThroughBridge(kernel), ...(await largeRecord(kernel))];
+    return [await sandboxStart(kernel), await demoRerun(kernel), await fitThroughBridge(kernel), await arrayThroughBridge(kernel)];
   } finally {
     kernel.dispose();
   }

@@ -15,6 +15,7 @@ export { toBaseUnits } from "./base-units.js";
 export type { SeriesInBaseUnits } from "./base-units.js";
 export { drawdownFromDepthToWater, drawdownFromHead } from "./levels.js";
 export { parseObservationCsv } from "./observation-csv.js";
+export type { ImportHostOptions } from "./observation-csv.js";
 export type {
   LevelKind,
   ObservationCsvImport,
@@ -24,7 +25,7 @@ export type {
 } from "./observation-csv-options.js";
 export { CsvError, CsvProblemCode } from "./csv-problems.js";
 export type { CsvColumnRef, CsvProblem } from "./csv-problems.js";
-export { readCsvRecords } from "./csv-records.js";
+export { CSV_CHECKPOINT_RECORDS, readCsvRecords } from "./csv-records.js";
 export type { CsvRecord, CsvRecords, CsvSeparator, CsvSyntaxProblem } from "./csv-records.js";
 export { readIsoTimestamp, readUtcOffset } from "./iso-timestamp.js";
 export type { IsoTimestamp } from "./iso-timestamp.js";

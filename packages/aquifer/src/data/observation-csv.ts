@@ -16,7 +16,7 @@
 import { convert } from "../units/index.js";
 import { CsvError, CsvProblemCode, describeLocation, makeProblem } from "./csv-problems.js";
 import type { CsvColumnRef, CsvProblem } from "./csv-problems.js";
-import { detectSeparator, offsetOfLine, readCsvRecords } from "./csv-records.js";
+import { CSV_CHECKPOINT_RECORDS, detectSeparator, offsetOfLine, readCsvRecords } from "./csv-records.js";
 import type { CsvRecord, CsvSeparator } from "./csv-records.js";
 import { decimalMarksIn, readDecimal } from "./decimal-numbers.js";
 import { TIMESTAMP_FORM, instantMs, readIsoTimestamp, readUtcOffset } from "./iso-timestamp.js";
@@ -30,6 +30,12 @@ import { checkUnit } from "./unit-checks.js";
 
 const DEFAULT_MISSING_MARKERS = ["", "NA", "N/A", "NaN", "null", "-"];
 const SEPARATOR_NAMES: Record<CsvSeparator, string> = { ",": "comma", ";": "semicolon", "\t": "tab" };
+
+/** What a host may add to an import (a cell cannot): a time budget. */
+export interface ImportHostOptions {
+  /** Called every CSV_CHECKPOINT_RECORDS records and rows; a host stops a long import at its time limit by throwing. */
+  readonly checkpoint?: () => void;
+}
 
 /** One data row as read: time in the series' timeUnit and raw level in lengthUnit, NaN when missing. */
 interface ReadRow {
@@ -174,10 +180,12 @@ function chooseDecimalComma(
  * header name. Times are elapsed times in `timeUnit` or ISO 8601 timestamps turned into elapsed time since
  * `pumpingStart` (offsets honoured, no host time zone); levels are drawdown, head or depth to water in
  * `lengthUnit`, turned into drawdown (s = h0 - h, s = d - d0). CSV syntax per RFC 4180.
+ * `host` (from host code only, never from a cell): a checkpoint for a long import (see ImportHostOptions).
  * @returns the series and notes on every remedy applied (sorting, exclusions, decimal mark chosen).
  * @throws CsvError listing every problem, each with row (1-based line of the file), column and fix.
  */
-export function parseObservationCsv(text: string, options: ObservationCsvOptions): ObservationCsvImport {
+export function parseObservationCsv(text: string, options: ObservationCsvOptions, host: ImportHostOptions = {}): ObservationCsvImport {
+  const { checkpoint } = host;
   const problems: CsvProblem[] = [];
   const notes: string[] = [];
   const settings = resolveSettings(options, problems);
@@ -209,7 +217,7 @@ export function parseObservationCsv(text: string, options: ObservationCsvOptions
   }
   if (options.separator === undefined && separator !== ",") notes.push(`field separator detected: ${SEPARATOR_NAMES[separator]}`);
 
-  const { records, problems: syntax } = readCsvRecords(body, separator, headerLine);
+  const { records, problems: syntax } = readCsvRecords(body, separator, headerLine, checkpoint);
   for (const p of syntax) {
     problems.push(makeProblem(CsvProblemCode.syntax, { row: p.line }, `field ${p.field}: ${p.message}`, p.fix));
   }
@@ -232,7 +240,7 @@ export function parseObservationCsv(text: string, options: ObservationCsvOptions
   const numericColumns = settings.timeFormat === "elapsed" ? [timeColumn, valueColumn] : [valueColumn];
   const decimalComma = chooseDecimalComma(options, separator, data, numericColumns, notes);
 
-  const rows = readRows(data, header.fields.length, separator, timeColumn, valueColumn, decimalComma, settings, problems);
+  const rows = readRows(data, header.fields.length, separator, timeColumn, valueColumn, decimalComma, settings, problems, checkpoint);
   const excluded: ExcludedPoint[] = [];
   const kept = applyRowPolicies(rows, options, settings, timeColumn, valueColumn, excluded, problems, notes);
   const ordered = orderByTime(kept, options.outOfOrder ?? "refuse", settings.timeUnit, timeColumn, problems, notes);
@@ -308,9 +316,16 @@ export function parseObservationCsv(text: string, options: ObservationCsvOptions
 
 /** 1-based number of the first line holding anything but spaces, or null for an empty text. */
 function firstNonBlankLine(text: string): number | null {
-  const lines = text.split(/\r\n|\n|\r/);
-  const index = lines.findIndex((l) => l.replace(/^\uFEFF/, "").trim() !== "");
-  return index < 0 ? null : index + 1;
+  let line = 1;
+  let start = 0;
+  for (;;) {
+    let end = start;
+    while (end < text.length && text.charCodeAt(end) !== 10 && text.charCodeAt(end) !== 13) end++;
+    if (text.slice(start, end).replace(/^\uFEFF/, "").trim() !== "") return line;
+    if (end >= text.length) return null;
+    start = text.charCodeAt(end) === 13 && text.charCodeAt(end + 1) === 10 ? end + 2 : end + 1;
+    line++;
+  }
 }
 
 /** Reads time and level from each record; pushes problems for ragged rows and unreadable fields. */
@@ -323,6 +338,7 @@ function readRows(
   decimalComma: boolean,
   settings: Settings,
   problems: CsvProblem[],
+  checkpoint: (() => void) | undefined,
 ): ReadRow[] {
   const rows: ReadRow[] = [];
   const unoffset: number[] = [];
@@ -366,7 +382,7 @@ function readRows(
     if (v.ok) row.raw = v.value;
     else if (isMissing(valueText, settings)) row.valueMissing = true;
     else problems.push(nonNumeric(record.line, valueColumn, v.reason, markFix));
-    rows.push(row);
+    if (rows.push(row) % CSV_CHECKPOINT_RECORDS === 0) checkpoint?.();
   }
   if (unoffset.length > 0) {
     const others = unoffset.length > 1 ? ` (and ${count(unoffset.length - 1, "more row")})` : "";

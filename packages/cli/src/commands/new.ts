@@ -5,14 +5,14 @@
  */
 import { mkdir, readFile, stat } from "node:fs/promises";
 import { basename, dirname, relative, resolve, sep } from "node:path";
-import { DocumentError, isSafeRelativePath, serializeDocument, sha256Hex, validateDocument } from "@conebook/document";
+import { DocumentError, isSafeRelativePath, serializeDocument, validateDocument } from "@conebook/document";
 import type { Cell, ConebookDocument, DataCell, DataSlot, Position } from "@conebook/document";
 import { onePositional, parseArgs, type OptionSpec } from "../args.js";
 import { writeFileAtomic } from "../atomic-write.js";
 import { EXIT, InputError, UsageError, place } from "../errors.js";
 import { cellLine } from "../execute.js";
 import type { Io } from "../io.js";
-import { loadDocument, shownPath, type LoadedDocument } from "../load.js";
+import { loadDocument, nodeSha256, shownPath, type LoadedDocument } from "../load.js";
 import { applySettings, checkParameterUnits, parseSettings } from "../settings.js";
 
 export const NEW_OPTIONS: readonly OptionSpec[] = [
@@ -182,14 +182,14 @@ export async function newCommand(argv: readonly string[], io: Io): Promise<numbe
           `${missing.map((c) => `${c.name}${c.unit ? ` (${c.unit})` : ""}`).join(", ")}, but the file's header line has ${columns.join(", ")}`,
       );
     }
-    const sha256 = sha256Hex(bytes);
+    const sha256 = nodeSha256(bytes);
     const inPlace = relative(outFolder, b.source).split(sep).join("/");
     let path = inPlace;
     if (!isSafeRelativePath(inPlace)) {
       path = `data/${basename(b.source)}`;
       const target = resolve(outFolder, path);
       if (await exists(target)) {
-        const current = sha256Hex(new Uint8Array(await readFile(target)));
+        const current = nodeSha256(new Uint8Array(await readFile(target)));
         if (current !== sha256 && !force) {
           throw new InputError(`${shownPath(target, io.cwd)} already exists with other contents; remove it, rename the data file, or add --force`);
         }
