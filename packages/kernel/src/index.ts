@@ -28,4 +28,5 @@ export { stripTypes, CellSyntaxError, type StrippedCell } from "./strip-types.js
 export { parseDataTable, DataCellError, type DataTable, type ReadFile } from "./data-cells.js";
 export { recordedControlValues, recordedRunSettings, type ControlRecord, type RecordedControl } from "./controls.js";
 export * from "./charts/index.js";
+export { referenceProblems, type ReferenceProblem } from "./reference-check.js";
 export { DEFAULT_RTOL, checkDataPins, compareOutputs, numbersAgree, recordedOutputs, relativeDifference, type CompareOptions, type DifferenceKind, type OutputDifference, type PinCheck } from "./verify.js";
