@@ -9,6 +9,7 @@ import { laplaceModelBenchmarks } from "./sections/laplace-models.js";
 import { newMethodBenchmarks } from "./sections/new-methods.js";
 import { wellFunctionsAndFit } from "./sections/well-functions-and-fit.js";
 import { workbenchBenchmarks } from "./sections/workbench.js";
+import { workbenchAnalysisBenchmarks } from "./sections/workbench-analysis.js";
 
 console.log("# Conebook benchmarks");
 console.log(machineLine());
@@ -18,3 +19,4 @@ printTable("Screened wells, slug and step tests (aquifer)", newMethodBenchmarks(
 printTable("Sandbox, bridge and documents (kernel)", await kernelBenchmarks());
 printTable("Command line (cli)", cliBenchmarks());
 printTable("Workbench page in Chromium (viewer)", await workbenchBenchmarks());
+printTable("Analysis by hand in the workbench (viewer, Chromium)", await workbenchAnalysisBenchmarks());

@@ -318,7 +318,7 @@ export function keptMatchSource(k: KeptMatch): string {
   const d = describeModel(k.choice.id);
   const rec = k.record.expression;
   const start = `{ ${d.parameters.map((p, i) => `${p.name}: ${num(k.values[i]!)}`).join(", ")} }`;
-  const matched = d.parameters.map((p, i) => `${p.name} = ${num(k.values[i]!)} ${p.unit}`).join(", ");
+  const matched = d.parameters.map((p, i) => `${p.name} = ${num(k.values[i]!)}${p.unit === "1" ? "" : ` ${p.unit}`}`).join(", ");
   const well = k.windowed ? `{ ...${rec}, mask: windowMask(${rec}) }` : rec;
   const used = k.windowed ? "the readings the data windows keep" : "every reading";
   const title = `${k.record.name}, ${d.name}: matched by hand${k.refined ? ", refined by least squares" : ""}`;
@@ -332,6 +332,7 @@ export function keptMatchSource(k: KeptMatch): string {
       `  start: ${start},`,
       `});`,
       `show(show.fit(${k.name}, { title: ${JSON.stringify(title)} }));`,
+      `show.value(${k.name}.n, "1", "readings used");`,
       `show.table(`,
       `  ${k.name}.freeParameters.map((name, i) => ({ parameter: name, ...Object.fromEntries(${k.name}.freeParameters.map((other, j) => [other, ${k.name}.correlation[i][j]])) })),`,
       `  { title: ${JSON.stringify(`Correlation of the estimates: ${k.record.name}, ${d.name}`)} },`,

@@ -90,9 +90,12 @@ export function concernsOutput(d: OutputDifference, index: number): boolean {
   return d.path === `[${index}]` || d.path.startsWith(`[${index}].`) || d.path.startsWith(`[${index}][`);
 }
 
+/** Tables of at most this many rows count each of their numbers as a headline (larger ones are records or listings). */
+export const SMALL_TABLE_ROWS = 12;
+
 /** One headline number of a run. */
 export interface Headline {
-  /** Stable key across runs: cell, output and row. */
+  /** Key across runs: cell, output, and row and column by position (row labels repeat, e.g. one row per well and model). */
   key: string;
   cellId: string;
   label: string;
@@ -102,8 +105,9 @@ export interface Headline {
 
 /**
  * The headline numbers of a run's outputs, in document order: every value output (by its label), every control
- * (its value), and the estimate of every row of a table of estimates (a fit table: an estimate column beside an
- * uncertainty column).
+ * (its value), the estimate of every row of a table of estimates (a fit table: an estimate column beside an
+ * uncertainty column), and every number of any other table of at most SMALL_TABLE_ROWS rows (a forecast, a
+ * comparison of models).
  */
 export function headlineNumbers(doc: ConebookDocument, outputs: Readonly<Record<string, readonly CellOutput[]>>): Headline[] {
   const out: Headline[] = [];
@@ -115,13 +119,25 @@ export function headlineNumbers(doc: ConebookDocument, outputs: Readonly<Record<
       else if (o.type === "control") out.push({ key: `${cell.id}#${i}`, cellId: cell.id, label: `control ${o.name}`, unit: o.unit ?? "", value: o.value });
       else if (o.type === "table") {
         const roles = estimateColumns(o.columns);
-        if (!roles) return;
+        if (!roles) {
+          // A small table of results (a forecast, a comparison): each of its numbers, by row and column.
+          if (o.rows.length > SMALL_TABLE_ROWS) return;
+          o.rows.forEach((row, r) => {
+            const name = typeof row[0] === "string" ? row[0] : `row ${r + 1}`;
+            row.forEach((v, c) => {
+              if (typeof v !== "number" || c === 0) return;
+              const col = o.columns[c]!;
+              out.push({ key: `${cell.id}#${i}/${r}/${c}`, cellId: cell.id, label: `${o.title ? `${o.title}: ` : ""}${name}, ${col.name}`, unit: col.unit ?? "", value: v });
+            });
+          });
+          return;
+        }
         o.rows.forEach((row, r) => {
           const v = row[roles.estimate];
           if (typeof v !== "number") return;
           const name = String(row[0] ?? `row ${r + 1}`);
           const unit = roles.unit !== undefined ? String(row[roles.unit] ?? "") : (o.columns[roles.estimate]!.unit ?? "");
-          out.push({ key: `${cell.id}#${i}/${name}`, cellId: cell.id, label: `${o.title ? `${o.title}: ` : ""}${name}`, unit, value: v });
+          out.push({ key: `${cell.id}#${i}/${r}`, cellId: cell.id, label: `${o.title ? `${o.title}: ` : ""}${name}`, unit, value: v });
         });
       }
     });

@@ -129,7 +129,8 @@ export function mappingProblems(slot: DataSlot, mapping: Readonly<Record<string,
  * The data file for `slot` from a chosen file. When every slot column comes from the file column of its name in
  * the slot's unit, the file is used byte for byte (`data/NAME`, as `conebook new` copies a file from outside the
  * document's folder). Otherwise a new CSV is written with the slot's columns in the slot's order, numbers
- * converted to the slot's units (aquifer unit tables), other fields as they were (`data/STEM.SLOT.csv`).
+ * converted to the slot's units (aquifer unit tables) and written at 12 significant digits, other fields as they
+ * were (`data/STEM.SLOT.csv`).
  */
 export function prepareData(slot: DataSlot, fileName: string, bytes: Uint8Array, mapping: Readonly<Record<string, ColumnSource>>): PreparedData {
   const base = fileName.replace(/^.*[\\/]/, "").replace(/[^A-Za-z0-9._-]/g, "_") || "data.csv";
@@ -153,7 +154,9 @@ export function prepareData(slot: DataSlot, fileName: string, bytes: Uint8Array,
         .map((k, j) => {
           const field = k >= 0 ? (fields[k] ?? "") : "";
           const v = Number(field);
-          return field !== "" && Number.isFinite(v) ? String(factors[j]!(v)) : field;
+          // Converted numbers at 12 significant digits: the conversion's last-bit noise (30 min read back as
+          // 29.999999999999996) is not written; no reading carries 12 digits.
+          return field !== "" && Number.isFinite(v) ? String(Number(factors[j]!(v).toPrecision(12))) : field;
         })
         .join(","),
     );

@@ -368,7 +368,7 @@ export class CbCell extends LitElement {
     const c = this.cell;
     const shown = this.shown;
     const status = shown?.status;
-    const kindLabel = CELL_KINDS.find((k) => k.kind === c.kind)?.label ?? c.kind;
+    const kindLabel = c.kind === "narrative" && c.review ? "review note" : (CELL_KINDS.find((k) => k.kind === c.kind)?.label ?? c.kind);
     const executable = c.kind !== "narrative";
     return html`<div class="bar">
       <span class="kind">${kindLabel}</span>

@@ -789,13 +789,14 @@ export class CbMatch extends LitElement {
 
   #refinedTable(fit: FitResult) {
     const free = fit.freeParameters;
-    return html`<h3>Refined by least squares</h3>
+    return html`<h3>Refined by least squares, from the matched values</h3>
+      <div style="display:flex;gap:1.2rem;flex-wrap:wrap;align-items:flex-start">
       <table>
         <caption class="note" style="caption-side:bottom;text-align:left">
           ${fit.n} readings, RMSE ${formatNumber(fit.rmse)} m, ${fit.converged ? "converged" : "not converged"} after ${fit.iterations} iterations
         </caption>
         <thead>
-          <tr><th scope="col">parameter</th><th scope="col">estimate</th><th scope="col">standard error</th><th scope="col">95 % low</th><th scope="col">95 % high</th><th scope="col">unit</th></tr>
+          <tr><th scope="col">parameter</th><th scope="col">estimate</th><th scope="col">std. error</th><th scope="col">95 % low</th><th scope="col">95 % high</th><th scope="col">unit</th></tr>
         </thead>
         <tbody>
           ${fit.parameters.map(
@@ -818,6 +819,7 @@ export class CbMatch extends LitElement {
           ${free.map((n, i) => html`<tr><td>${n}</td>${free.map((_, j) => html`<td>${formatNumber(Number(fit.correlation[i]![j]!.toFixed(4)))}</td>`)}</tr>`)}
         </tbody>
       </table>
+      </div>
       ${fit.warnings.map((w) => html`<p class="note">${w}</p>`)}`;
   }
 
@@ -850,6 +852,27 @@ export class CbMatch extends LitElement {
         <datalist id="reasons">${COMMON_REASONS.map((r) => html`<option value=${r}></option>`)}</datalist>
         <button class="primary" ?disabled=${!sel || this.reason.trim() === ""} @click=${() => this.#leaveOut()}>Leave out ${inSel ? `${inSel} reading${inSel === 1 ? "" : "s"}` : ""}</button>
       </div>`;
+  }
+
+  /** What a frame shows besides the marks: the curve on a grid, the figures at the readings, the match point. */
+  #compute(record: ObservationRecord, model: DrawdownModel | undefined, values: Float64Array | undefined, used: boolean[]) {
+    const grid = logTimes(record.t[0]! / 2, record.t[record.t.length - 1]! * 2, 160);
+    const curve = model && values ? curveAt(model, values, record, grid) : undefined;
+    const atReadings = model && values ? curveAt(model, values, record, record.t) : undefined;
+    const figures = atReadings ? errorFigures(record, atReadings, used) : undefined;
+    const point = model && values ? matchPointOf(this.choice, values, record) : undefined;
+    if (curve) curveDerivative(grid, curve);
+    return { grid, curve, figures, point };
+  }
+
+  /**
+   * The computation of one frame without drawing it (curve, derivative, figures, match point), for the bench's
+   * peer figure; returns the RMSE (m).
+   */
+  computeOnly(): number {
+    const record = this.record;
+    if (!record) return Number.NaN;
+    return this.#compute(record, this.#model, this.values, this.#used(record)).figures?.rmse ?? Number.NaN;
   }
 
   override render() {
@@ -902,11 +925,7 @@ export class CbMatch extends LitElement {
     const values = this.values;
     const used = this.#used(record);
     const reasons = windowReasons(this.#set, record.name, record.t);
-    const grid = logTimes(record.t[0]! / 2, record.t[record.t.length - 1]! * 2, 160);
-    const curve = model && values ? curveAt(model, values, record, grid) : undefined;
-    const atReadings = model && values ? curveAt(model, values, record, record.t) : undefined;
-    const figures = atReadings ? errorFigures(record, atReadings, used) : undefined;
-    const point = model && values ? matchPointOf(this.choice, values, record) : undefined;
+    const { grid, curve, figures, point } = this.#compute(record, model, values, used);
     const f = this.#perDay;
     return html`${head}
       ${this.#options()}
@@ -924,7 +943,7 @@ export class CbMatch extends LitElement {
           ${point
             ? html`<div class="matchpoint">
                 <strong>Match point.</strong> ${point.reading} falls at s = ${formatNumber(point.s)} m and t = ${formatNumber(point.t * f)} ${this.timeUnit}; from that reading the library's ${point.method}
-                gives ${point.gives.map((g, i) => html`${i ? ", " : ""}${g.name} = ${formatNumber(g.value)} ${g.unit}`)}.
+                gives ${point.gives.map((g, i) => html`${i ? ", " : ""}${g.name} = ${formatNumber(g.value)}${g.unit === "1" ? "" : ` ${g.unit}`}`)}.
               </div>`
             : model
               ? html`<div class="matchpoint">No match-point procedure of the library for ${model.name}; the parameters above are the match.</div>`
@@ -937,9 +956,10 @@ export class CbMatch extends LitElement {
           </div>
           <p class="note">Keep writes a code cell after the record's cell: the model, the record, the ${this.refined ? "values as matched before refining" : "values as matched"} (4 significant digits) and the data windows; run the document to record its outputs.</p>
           ${this.refineProblem ? html`<p class="problem" role="alert">The fit failed: ${this.refineProblem}</p>` : nothing}
-          ${this.refined ? this.#refinedTable(this.refined.fit) : nothing}
         </div>
       </div>
+      ${this.refined ? html`<div class="refined">${this.#refinedTable(this.refined.fit)}</div>` : nothing}
+      <p class="note" role="note">A match shows what the model and these readings imply, not what the aquifer is: interpreting it is for qualified professionals, and local regulations and licensed practice govern.</p>
       <div class="charts-row">${this.#semilog(record, used, reasons, grid, curve)} ${this.#derivative(record, used, reasons, grid, curve)}</div>
       ${this.#windowsPart(record, used)}`;
   }

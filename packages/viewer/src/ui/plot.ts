@@ -44,15 +44,15 @@ export class Axis {
   /** Tick values with whether each is labelled (log: 1..9 x 10^k, labels at decades; linear: about 6 round steps). */
   ticks(): { v: number; major: boolean; label: boolean }[] {
     if (this.kind === "log") {
-      const out: { v: number; major: boolean; label: boolean }[] = [];
+      const out: { v: number; major: boolean; label: boolean; m: number }[] = [];
       for (let k = Math.floor(this.lo); k <= Math.ceil(this.hi); k++) {
         for (let m = 1; m <= 9; m++) {
           const x = k + Math.log10(m);
-          if (x >= this.lo - 1e-9 && x <= this.hi + 1e-9) out.push({ v: m * 10 ** k, major: m === 1, label: m === 1 });
+          if (x >= this.lo - 1e-9 && x <= this.hi + 1e-9) out.push({ v: m * 10 ** k, major: m === 1, label: m === 1, m });
         }
       }
       // Less than two decades shown: 2 and 5 are labelled too, so the axis can still be read.
-      if (out.filter((t) => t.major).length < 2) for (const t of out) if (/^[25]/.test(t.v.toPrecision(1))) t.label = true;
+      if (out.filter((t) => t.major).length < 2) for (const t of out) if (t.m === 2 || t.m === 5) t.label = true;
       return out;
     }
     const span = this.hi - this.lo;

@@ -312,7 +312,7 @@ export class CbTemplateForm extends LitElement {
           <input id=${`param-${p.name}`} type="text" .value=${f.text} @input=${(e: Event) => this.#field(p.name, { text: (e.target as HTMLInputElement).value })} aria-describedby=${`param-${p.name}-about`} />
           <label class="hint"><input type="checkbox" .checked=${f.confirmed} @change=${(e: Event) => this.#field(p.name, { confirmed: (e.target as HTMLInputElement).checked })} aria-label=${`Confirm the value of ${p.name}`} /> confirm</label>
           <span id=${`param-${p.name}-about`} class="hint">
-            ${p.description ?? ""}${p.range ? ` Range ${p.range[0]} to ${p.range[1]}${p.unit ? ` ${p.unit}` : ""}.` : ""}
+            ${p.description ? `${p.description.replace(/\.?$/, ".")} ` : ""}${p.range ? `Range ${p.range[0]} to ${p.range[1]}${p.unit ? ` ${p.unit}` : ""}.` : ""}
             ${"problem" in reading ? html`<span class="bad">${reading.problem}</span>` : demo ? html`<span class="bad">the template's demonstration value: change or confirm it</span>` : html`<span class="ok">= ${reading.shown}</span>`}
           </span>
         </div>`;

@@ -385,6 +385,8 @@ export class CbWorkbench extends LitElement {
       }
       dialog.template-form {
         width: min(64rem, 94vw);
+        max-height: 90vh;
+        overflow: auto;
       }
       @media (max-width: 60rem) {
         .layout {
@@ -1291,7 +1293,7 @@ export class CbWorkbench extends LitElement {
                         <td>${m.label}${m.unit ? ` (${m.unit})` : ""}</td>
                         <td>${m.before === undefined ? "none" : formatNumber(m.before)}</td>
                         <td>${m.after === undefined ? "none" : formatNumber(m.after)}</td>
-                        <td>${m.change === undefined ? "" : `${m.change >= 0 ? "+" : "−"}${formatNumber(Math.abs(m.change * 100))} %`}</td>
+                        <td>${m.change === undefined ? "" : `${m.change >= 0 ? "+" : "−"}${Number(Math.abs(m.change * 100).toPrecision(3))} %`}</td>
                       </tr>`,
                     )}
                   </tbody>
