@@ -10,6 +10,7 @@
  * reason on hover. Everything kept leaves as an event the workbench turns into a transaction.
  */
 import { LitElement, css, html, nothing, svg, type PropertyValues } from "lit";
+import { guard } from "lit/directives/guard.js";
 import { convert, describeModel, modelIds, type DrawdownModel, type FitResult } from "@conebook/aquifer";
 import {
   curveAt,
@@ -439,6 +440,14 @@ export class CbMatch extends LitElement {
 
   #focusChart: Chart | undefined;
 
+  /**
+   * What the readings' marks depend on: the record, the time unit, the windows and the selection. While a drag
+   * moves only the curve these stay the same, and `guard` skips redrawing the axes and the readings.
+   */
+  #marksKey(record: ObservationRecord, used: boolean[]): string {
+    return `${record.expression}|${this.timeUnit}|${used.map((u) => (u ? 1 : 0)).join("")}|${this.selection?.from ?? ""}|${this.selection?.to ?? ""}`;
+  }
+
   #plot(chart: Chart, frame: Frame, label: string, body: unknown, x: Axis) {
     const classes = `plot ${chart} ${chart === "loglog" ? this.tool : "select"}${this.#drag?.mode === "move" ? " dragging" : ""}`;
     return html`<div
@@ -467,11 +476,12 @@ export class CbMatch extends LitElement {
     const f = this.#perDay;
     const x = this.#timeAxis(record, LOGLOG);
     const y = new Axis("log", extent(record.s, "log", 0.08), [LOGLOG.height - LOGLOG.bottom, LOGLOG.top]);
-    const body = svg`${axesOf(LOGLOG, x, y, `time since pumping started (${this.timeUnit})`, "drawdown (m)")}
+    const key = this.#marksKey(record, used);
+    const body = svg`${guard([record, this.timeUnit], () => axesOf(LOGLOG, x, y, `time since pumping started (${this.timeUnit})`, "drawdown (m)"))}
       <clipPath id="clip-loglog"><rect x=${LOGLOG.left} y=${LOGLOG.top} width=${LOGLOG.width - LOGLOG.left - LOGLOG.right} height=${LOGLOG.height - LOGLOG.top - LOGLOG.bottom}></rect></clipPath>
       <g clip-path="url(#clip-loglog)">
         ${curve ? svg`<path class="curve" d=${linePath(x, y, Array.from(grid, (t) => t * f), curve)} fill="none" stroke=${CURVE_COLOUR} stroke-width="2.2"></path>` : nothing}
-        ${this.#points(record, x, y, record.s, used, reasons)}
+        ${guard([key], () => this.#points(record, x, y, record.s, used, reasons))}
         ${this.#brushRect("loglog", LOGLOG)} ${this.#cursorMark(x, LOGLOG, "loglog")}
       </g>`;
     const what = model && values ? `${model.name} curve` : "no curve";
@@ -500,11 +510,12 @@ export class CbMatch extends LitElement {
     const f = this.#perDay;
     const x = this.#timeAxis(record, SMALL);
     const y = new Axis("linear", extent(record.s, "linear", 0.06), [SMALL.height - SMALL.bottom, SMALL.top]);
-    const body = svg`${axesOf(SMALL, x, y, `time (${this.timeUnit})`, "drawdown (m)")}
+    const key = this.#marksKey(record, used);
+    const body = svg`${guard([record, this.timeUnit], () => axesOf(SMALL, x, y, `time (${this.timeUnit})`, "drawdown (m)"))}
       <clipPath id="clip-semilog"><rect x=${SMALL.left} y=${SMALL.top} width=${SMALL.width - SMALL.left - SMALL.right} height=${SMALL.height - SMALL.top - SMALL.bottom}></rect></clipPath>
       <g clip-path="url(#clip-semilog)">
         ${curve ? svg`<path d=${linePath(x, y, Array.from(grid, (t) => t * f), curve)} fill="none" stroke=${CURVE_COLOUR} stroke-width="2"></path>` : nothing}
-        ${this.#points(record, x, y, record.s, used, reasons)} ${this.#brushRect("semilog", SMALL)} ${this.#cursorMark(x, SMALL, "semilog")}
+        ${guard([key], () => this.#points(record, x, y, record.s, used, reasons))} ${this.#brushRect("semilog", SMALL)} ${this.#cursorMark(x, SMALL, "semilog")}
       </g>`;
     return this.#plot("semilog", SMALL, `Semilog chart of ${record.name}: brush a time range or click a reading to select it`, body, x);
   }
@@ -518,11 +529,12 @@ export class CbMatch extends LitElement {
     const modelDs = curve ? curveDerivative(grid, curve) : undefined;
     const y = new Axis("log", extent([...d.ds], "log", 0.15), [SMALL.height - SMALL.bottom, SMALL.top]);
     const index = new Map(Array.from(record.t, (t, i) => [t, i]));
-    const body = svg`${axesOf(SMALL, x, y, `time (${this.timeUnit})`, "ds/d ln t (m)")}
+    const marks = this.#marksKey(record, used);
+    const body = svg`${guard([record, this.timeUnit, d], () => axesOf(SMALL, x, y, `time (${this.timeUnit})`, "ds/d ln t (m)"))}
       <clipPath id="clip-derivative"><rect x=${SMALL.left} y=${SMALL.top} width=${SMALL.width - SMALL.left - SMALL.right} height=${SMALL.height - SMALL.top - SMALL.bottom}></rect></clipPath>
       <g clip-path="url(#clip-derivative)">
         ${modelDs ? svg`<path d=${linePath(x, y, Array.from(grid, (t) => t * f), modelDs)} fill="none" stroke=${CURVE_COLOUR} stroke-width="2"></path>` : nothing}
-        ${this.#points(record, x, y, d.ds, used, reasons, d.t, (k) => index.get(d.t[k]!) ?? 0)}
+        ${guard([marks, d], () => this.#points(record, x, y, d.ds, used, reasons, d.t, (k) => index.get(d.t[k]!) ?? 0))}
         ${this.#brushRect("derivative", SMALL)} ${this.#cursorMark(x, SMALL, "derivative")}
       </g>`;
     return this.#plot("derivative", SMALL, `Log derivative of the readings of ${record.name} that are used (Bourdet, 0.2 log cycles) and of the model curve: brush or click to select`, body, x);
