@@ -102,7 +102,8 @@ export class CbNoteForm extends LitElement {
         .value=${this.text}
         @input=${(e: Event) => (this.text = (e.target as HTMLTextAreaElement).value)}
         @keydown=${(e: KeyboardEvent) => {
-          e.stopPropagation();
+          // Keys typed into the note are the note's (Shift+Enter is a line break here, not "run from"); Ctrl+S still saves.
+          if (!((e.ctrlKey || e.metaKey) && e.key.toLowerCase() === "s")) e.stopPropagation();
           if (e.key === "Enter" && (e.ctrlKey || e.metaKey)) this.#add();
           if (e.key === "Escape") send(this, { action: "cancel" });
         }}
@@ -210,7 +211,7 @@ export class CbNote extends LitElement {
               .value=${this.text}
               @input=${(e: Event) => (this.text = (e.target as HTMLTextAreaElement).value)}
               @keydown=${(e: KeyboardEvent) => {
-                e.stopPropagation();
+                if (!((e.ctrlKey || e.metaKey) && e.key.toLowerCase() === "s")) e.stopPropagation();
                 if (e.key === "Enter" && (e.ctrlKey || e.metaKey)) this.#reply();
               }}
             ></textarea>

@@ -383,6 +383,10 @@ export class CbWorkbench extends LitElement {
         border-bottom: 1px solid #ece8de;
         text-align: left;
       }
+      .moves td:not(:nth-child(2)) {
+        white-space: nowrap;
+        font-variant-numeric: tabular-nums;
+      }
       dialog.template-form {
         width: min(64rem, 94vw);
         max-height: 90vh;
