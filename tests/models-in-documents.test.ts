@@ -87,6 +87,8 @@ function documentFor(id: string, c: Case): string {
 conebook: 1
 title: Synthetic ${id} record
 seed: 1
+limits:
+  cellTimeMs: 120000
 ---
 
 ${dataCells.join("\n\n")}

@@ -13,6 +13,7 @@ import { laplaceModelBenchmarks } from "./sections/laplace-models.js";
 import { newMethodBenchmarks } from "./sections/new-methods.js";
 import { wellFunctionsAndFit } from "./sections/well-functions-and-fit.js";
 import { workbenchBenchmarks } from "./sections/workbench.js";
+import { workbenchAnalysisBenchmarks } from "./sections/workbench-analysis.js";
 
 const only = process.argv.find((a) => a.startsWith("--only="))?.slice(7).split(",");
 const wanted = (name: string) => only === undefined || only.includes(name);
@@ -34,4 +35,5 @@ if (wanted("kernel")) printTable("Sandbox, bridge and documents (kernel)", await
 if (wanted("cli")) printTable("Command line (cli): cold start and logger documents", await cliBenchmarks());
 if (wanted("coverage")) coverageSection();
 if (wanted("workbench")) printTable("Workbench page in Chromium (viewer)", await workbenchBenchmarks());
+if (wanted("workbench")) printTable("Analysis by hand in the workbench (viewer, Chromium)", await workbenchAnalysisBenchmarks());
 printTargetSummary();

@@ -7,20 +7,25 @@
  * the same name (see `runOverrides`). A name that is neither a parameter nor a control recorded in the file is
  * checked after the run, when the kernel reports which controls it met.
  */
-import { convert, parseUnit } from "@conebook/aquifer";
-import { isReservedName, reservedNameReason, type CellOutput, type ConebookDocument, type Position, type TemplateParameter } from "@conebook/document";
+import {
+  TemplateInputError,
+  checkTemplateUnits,
+  isReservedName,
+  readTemplateSetting,
+  reservedNameReason,
+  settingNumber,
+  withParameterValue,
+  type CellOutput,
+  type ConebookDocument,
+  type Position,
+  type TemplateParameter,
+  type TemplateSetting,
+} from "@conebook/document";
 import { recordedControlValues } from "@conebook/kernel";
 import { InputError, UsageError, place } from "./errors.js";
 
-/** One `--set` as typed. */
-export interface Setting {
-  name: string;
-  raw: string;
-  number?: number;
-  unit?: string;
-}
-
-const NUMBER_WITH_UNIT = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(.*?)\s*$/;
+/** One `--set` as typed (the document package's TemplateSetting: the text, and its number and unit). */
+export type Setting = TemplateSetting;
 
 /** Reads `name=value` words; throws UsageError for a word without `=` or with an empty name. */
 export function parseSettings(words: readonly string[], command: string): Setting[] {
@@ -32,14 +37,7 @@ export function parseSettings(words: readonly string[], command: string): Settin
     if (isReservedName(name)) throw new UsageError(`--set ${name}: the name ${reservedNameReason(name)}`, command);
     if (seen.has(name)) throw new UsageError(`--set ${name} is given twice; give each name once`, command);
     seen.add(name);
-    const raw = word.slice(eq + 1);
-    const m = NUMBER_WITH_UNIT.exec(raw);
-    const s: Setting = { name, raw };
-    if (m) {
-      s.number = Number(m[1]);
-      if (m[2] !== "") s.unit = m[2]!;
-    }
-    return s;
+    return readTemplateSetting(name, word.slice(eq + 1));
   });
 }
 
@@ -61,17 +59,11 @@ function recordedControls(doc: ConebookDocument): Map<string, ControlInFile> {
 
 /** The number of a setting in `unit`, converting from the unit typed. Throws InputError at `where`. */
 function numberIn(s: Setting, unit: string | undefined, what: string, where: string): number {
-  if (s.number === undefined || !Number.isFinite(s.number)) {
-    throw new InputError(`${where}: --set ${s.name}=${s.raw}: ${what} takes a number${unit ? ` in ${unit}` : ""}, for example --set ${s.name}=1.5${unit ? unit : ""}`);
-  }
-  if (s.unit === undefined || s.unit === unit) return s.number;
-  if (unit === undefined) {
-    throw new InputError(`${where}: --set ${s.name}=${s.raw}: ${what} has no unit; give a plain number`);
-  }
   try {
-    return convert(s.number, s.unit, unit);
+    return settingNumber(s, unit, what, where);
   } catch (e) {
-    throw new InputError(`${where}: --set ${s.name}=${s.raw}: ${what} is in ${unit}, and ${JSON.stringify(s.unit)} cannot be converted to it: ${(e as Error).message}`);
+    if (e instanceof TemplateInputError) throw new InputError(e.message);
+    throw e;
   }
 }
 
@@ -104,22 +96,13 @@ export function applySettings(doc: ConebookDocument, shown: string, settings: re
   for (const s of settings) {
     const index = parameters.findIndex((p) => p.name === s.name);
     if (index >= 0) {
-      const p = parameters[index]!;
       const pos = at(`parameters.${index}.value`);
-      const where = place(shown, pos.line, pos.column);
-      if (typeof p.value === "string") {
-        p.value = s.raw;
-        continue;
+      try {
+        parameters[index] = withParameterValue(parameters[index]!, s, place(shown, pos.line, pos.column));
+      } catch (e) {
+        if (e instanceof TemplateInputError) throw new InputError(e.message);
+        throw e;
       }
-      const v = numberIn(s, p.unit, `parameter "${p.name}"`, where);
-      if (p.range && !(v >= p.range[0] && v <= p.range[1])) {
-        throw new InputError(
-          `${where}: --set ${s.name}=${s.raw}: parameter "${p.name}" must lie in ${formatRange(p.range[0], p.range[1], p.unit)}, got ${v}${p.unit ? ` ${p.unit}` : ""}; choose a value in the range`,
-        );
-      }
-      p.value = v;
-      if (s.unit !== undefined && s.unit !== p.unit) p.given = `${s.number} ${s.unit}`;
-      else delete p.given;
       continue;
     }
     const control = allowControls ? controls.get(s.name) : undefined;
@@ -200,14 +183,10 @@ export function checkPendingSettings(
  * --set can be converted to it. Throws InputError at the unit's `file:line:column`, with close known symbols.
  */
 export function checkParameterUnits(doc: ConebookDocument, shown: string): void {
-  const positions = doc.layout?.headerPositions ?? {};
-  doc.header.parameters.forEach((p, i) => {
-    if (p.unit === undefined || p.unit === "") return;
-    try {
-      parseUnit(p.unit);
-    } catch (e) {
-      const at = positions[`parameters.${i}.unit`] ?? { line: 1, column: 1 };
-      throw new InputError(`${place(shown, at.line, at.column)}: template parameter "${p.name}" has the unit ${JSON.stringify(p.unit)}, which is not known: ${(e as Error).message}`);
-    }
-  });
+  try {
+    checkTemplateUnits(doc, shown);
+  } catch (e) {
+    if (e instanceof TemplateInputError) throw new InputError(e.message);
+    throw e;
+  }
 }

@@ -300,6 +300,34 @@ describe("conebook run --write, verify and export", () => {
     expect(tolerant.stderr).toContain("--rtol must be a number >= 0");
   });
 
+  it("lists the review notes of a verified document, open and resolved, without changing the exit code", async () => {
+    const text = await read("demo.cone.md");
+    const notes = [
+      "",
+      '[review:slope-note-1]: # "on slope, open"',
+      "",
+      "> **Challenge** from R. E. Viewer: Only the readings from 300 s on are used; why not the earlier ones?",
+      ">",
+      "> **Answer** from A. N. Analyst: Cooper-Jacob holds for small u only.",
+      "",
+      '[review:slope-note-2]: # "on slope, resolved"',
+      "",
+      "> **Accepted** from R. E. Viewer: The slope.",
+      "",
+    ].join("\n");
+    await writeFile(join(dir, "noted.cone.md"), text + notes);
+    const r = await conebook(dir, "verify", "noted.cone.md");
+    const at = text.split("\n").length + 1;
+    expect(r.code).toBe(0);
+    expect(r.stdout.split("\n")).toEqual([
+      "noted.cone.md: 2 review notes, 1 open, 1 resolved:",
+      `noted.cone.md:${at}: review note slope-note-1 on cell slope: open: Challenge from R. E. Viewer: Only the readings from 300 s on are used; why not the earlier ones? (1 more entry)`,
+      `noted.cone.md:${at + 6}: review note slope-note-2 on cell slope: resolved: Accepted from R. E. Viewer: The slope.`,
+      "noted.cone.md: verified: all 5 recorded outputs of 3 cells match (rtol 1e-9; aquifer 0.1.0)",
+      "",
+    ]);
+  });
+
   it("exports one offline HTML report with an inline SVG chart, the CSP, the caution, provenance and no script", async () => {
     const [recorded, hostile, unverified, edited] = await Promise.all([
       conebook(dir, "export", "demo.cone.md", "-o", "report.html", "--run-date", "2026-03-14"),

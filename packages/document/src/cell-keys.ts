@@ -11,7 +11,7 @@ export function markerKey(cell: Cell): string {
   const base = { id: cell.id, kind: cell.kind, attributes: cell.attributes ?? {} };
   switch (cell.kind) {
     case "narrative":
-      return stableStringify(base);
+      return cell.review ? stableStringify({ ...base, review: cell.review }) : stableStringify(base);
     case "code":
       return stableStringify({ ...base, language: cell.language });
     case "data":

@@ -35,6 +35,20 @@ export { DocumentError, formatDiagnostic } from "./errors.js";
 export { messages } from "./messages.js";
 export { RESERVED_NAMES, isReservedName, reservedNameReason } from "./names.js";
 export { renderNarrative } from "./render.js";
+export {
+  TEMPLATE_INFO_KEYS,
+  TemplateInputError,
+  checkTemplateUnits,
+  csvHeaderColumns,
+  documentFromTemplate,
+  readTemplateSetting,
+  settingNumber,
+  templateSlot,
+  withParameterValue,
+} from "./from-template.js";
+export type { TemplateData, TemplateInfo, TemplateInput, TemplateOutcome, TemplateSetting } from "./from-template.js";
+export { REVIEW_ENTRY_KINDS, isReviewNote, readReviewThread, reviewMarker, reviewNotes, writeReviewThread } from "./review-notes.js";
+export type { ReviewEntry, ReviewEntryKind, ReviewMark, ReviewNote, ReviewStatus } from "./review-notes.js";
 export { sha256Hex, utf8Bytes } from "./sha256.js";
 export { decodeUtf8, decodeUtf8Strict, describeUtf8Problem, utf8Problem, type Utf8Problem } from "./utf8.js";
 export { FORMAT_VERSION, HEADER_KEYS } from "./header.js";

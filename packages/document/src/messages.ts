@@ -158,6 +158,14 @@ export const messages = {
     code: "outputs-for-narrative",
     message: `outputs were given for narrative cell ${q(id)}; only code, data and chart cells record outputs`,
   }),
+  reviewMarkerUnread: () => ({
+    code: "review-marker-unread",
+    message: 'this line starts like a review note\'s marker but does not read as one, so it is kept as ordinary Markdown; write it as [review:ID]: # "on CELL, open" (or resolved)',
+  }),
+  reviewTargetMissing: (id: string, on: string) => ({
+    code: "review-target-missing",
+    message: `review note ${q(id)} is on cell ${q(on)}, but no cell has that id; change "on ${on}" to the cell the note concerns, or delete the note`,
+  }),
   codeLanguageModel: (id: string, lang: string) => ({
     code: "code-language",
     message: `code cell ${q(id)} has language ${q(lang)}; only "ts" is supported`,

@@ -15,6 +15,7 @@ import type { CellInfo, OpeningFence } from "./fence.js";
 import { headerSnapshot, readHeader } from "./header.js";
 import { messages } from "./messages.js";
 import { readOutputs } from "./outputs.js";
+import { REVIEW_MARKER, REVIEW_MARKER_START, type ReviewMark } from "./review-notes.js";
 import { PositionMap, detectEol, dropFinalEol, splitLines } from "./text.js";
 import type { Line } from "./text.js";
 import type { Cell, CellOutput, ConebookDocument, Diagnostic, Position } from "./types.js";
@@ -109,6 +110,7 @@ interface MarkerBlock {
   start: number;
   end: number;
   id: string | undefined;
+  review?: ReviewMark;
 }
 interface ContentBlock {
   type: "content";
@@ -189,10 +191,17 @@ export function splitBody(text: string, from: number, file?: string): BodyReadin
   for (let i = firstLine; i < lines.length; i++) {
     while (next < covered.length && covered[next]![1] <= i) next++;
     if (next < covered.length && covered[next]![0] <= i) continue;
-    const m = NARRATIVE_MARKER.exec(lineText(i));
+    const line = lineText(i);
+    const m = NARRATIVE_MARKER.exec(line);
+    const r = m ? null : REVIEW_MARKER.exec(line);
     const references = env.references as Record<string, unknown> | undefined;
-    if (m && references && normalizeLabel(lineText(i).slice(1, lineText(i).indexOf("]"))) in references) {
+    const isDefinition = (): boolean => references !== undefined && normalizeLabel(line.slice(1, line.indexOf("]"))) in references;
+    if (m && isDefinition()) {
       blocks.push({ type: "marker", start: lines[i]!.start, end: lines[i]!.end, id: m[1] === "" || m[1] === undefined ? undefined : m[1] });
+    } else if (r && isDefinition()) {
+      blocks.push({ type: "marker", start: lines[i]!.start, end: lines[i]!.end, id: r[1]!, review: { on: r[2]!, status: r[3] as ReviewMark["status"] } });
+    } else if (!m && REVIEW_MARKER_START.test(line) && isDefinition()) {
+      warn(messages.reviewMarkerUnread(), positions.at(lines[i]!.start));
     }
   }
   blocks.sort((x, y) => x.start - y.start);
@@ -201,7 +210,7 @@ export function splitBody(text: string, from: number, file?: string): BodyReadin
   const assigned = new Set<Cell>();
   let cursor = from;
   let lastFenced: Cell | undefined;
-  let narrative: { leading: string; markerStart?: number; markerEnd?: number; id?: string; contentStart?: number; contentEnd?: number } | undefined;
+  let narrative: { leading: string; markerStart?: number; markerEnd?: number; id?: string; review?: ReviewMark; contentStart?: number; contentEnd?: number } | undefined;
 
   const flushNarrative = (): void => {
     if (!narrative) return;
@@ -221,6 +230,7 @@ export function splitBody(text: string, from: number, file?: string): BodyReadin
       outputs: [],
       origin: { leading: n.leading, head, body: bodyText, tail: "", snapshot: "", idAssigned: n.id === undefined, start },
     };
+    if (n.review) cell.review = n.review;
     if (n.id === undefined) assigned.add(cell);
     cells.push(cell);
   };
@@ -257,6 +267,7 @@ export function splitBody(text: string, from: number, file?: string): BodyReadin
       flushNarrative();
       narrative = { leading: gap, markerStart: block.start, markerEnd: block.end };
       if (block.id !== undefined) narrative.id = block.id;
+      if (block.review) narrative.review = block.review;
       cursor = block.end;
       lastFenced = undefined;
       continue;

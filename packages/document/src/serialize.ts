@@ -13,6 +13,7 @@ import { YAML_WRITE_OPTIONS, headerSnapshot, rewriteHeaderYaml, writeHeaderYaml 
 import { messages } from "./messages.js";
 import { writeOutputs } from "./outputs.js";
 import { splitBody } from "./parse.js";
+import { reviewMarker } from "./review-notes.js";
 import { isBlank, splitLines, stableStringify } from "./text.js";
 import type { Cell, ChartCell, ConebookDocument, DocumentHeader, Position } from "./types.js";
 
@@ -61,6 +62,11 @@ function narrativeMarker(id: string): string {
   return `[narrative:${id}]: #`;
 }
 
+/** The marker of a narrative cell: a review marker for a review note. */
+function markerOf(cell: Cell): string {
+  return cell.kind === "narrative" && cell.review ? reviewMarker(cell.id, cell.review) : narrativeMarker(cell.id);
+}
+
 /** Trims blank lines from both ends: they are layout, not content, in a narrative cell. */
 function trimBlankLines(source: string): string {
   const lines = splitLines(source);
@@ -78,12 +84,16 @@ function writeNarrative(cell: Cell, eol: string, writeIds: boolean): string {
   const bodyUnchanged = o !== undefined && bodyKey(cell) === JSON.parse(o.snapshot).body;
   if (o && idUnchanged && bodyUnchanged) {
     if (!o.idAssigned || !writeIds) return o.head + o.body;
-    if (o.head === "") return narrativeMarker(cell.id) + eol + eol + o.body;
-    return narrativeMarker(cell.id) + o.head.slice(splitLines(o.head)[0]!.end) + o.body;
+    if (o.head === "") return markerOf(cell) + eol + eol + o.body;
+    return markerOf(cell) + o.head.slice(splitLines(o.head)[0]!.end) + o.body;
+  }
+  if (o && o.head !== "" && bodyUnchanged) {
+    // Only the marker changed (an id, or a review note's status): the marker line is rewritten, the rest kept.
+    return markerOf(cell) + o.head.slice(splitLines(o.head)[0]!.end) + o.body;
   }
   const source = trimBlankLines(cell.source);
   checkNarrative(cell.id, source, eol, o?.start ?? cell.sourceStart);
-  return source === "" ? narrativeMarker(cell.id) : narrativeMarker(cell.id) + eol + eol + source;
+  return source === "" ? markerOf(cell) : markerOf(cell) + eol + eol + source;
 }
 
 /** Throws unless `source`, written as a narrative cell between other cells, reads back as exactly itself. */

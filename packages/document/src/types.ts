@@ -6,6 +6,7 @@
  * `serializeDocument` write untouched parts back byte for byte and regenerate only what changed.
  */
 
+import type { ReviewMark } from "./review-notes.js";
 import type { TestInformation } from "./test-information.js";
 
 /** A place in the document text. Both numbers are 1-based; columns count UTF-16 code units. */
@@ -100,6 +101,8 @@ interface CellBase {
 
 export interface NarrativeCell extends CellBase {
   kind: "narrative";
+  /** Present when the cell is a review note (marker `[review:ID]: # "on CELL, open"`, see review-notes.ts). */
+  review?: ReviewMark;
 }
 
 export interface CodeCell extends CellBase {

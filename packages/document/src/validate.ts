@@ -50,6 +50,7 @@ export function validateDocument(doc: ConebookDocument, options: ValidateOptions
     if (seen !== undefined) err(messages.idDuplicate(cell.id, seen), at, cell.id);
     else ids.set(cell.id, at.line);
     validateCell(cell, at, err, warn, dataNames);
+    if (cell.kind === "narrative" && cell.review && !doc.cells.some((c) => c.id === cell.review!.on)) warn(messages.reviewTargetMissing(cell.id, cell.review.on), at, cell.id);
     cell.outputs.forEach((o, i) => {
       const problem = outputShapeProblem(o);
       if (problem && !cell.origin?.outputsText) err(messages.outputsShape(`output ${i + 1}: ${problem}`), at, cell.id);

@@ -29,4 +29,5 @@ export { parseDataTable, DataCellError, type DataTable, type HashedBytes, type R
 export { platformSha256, type Sha256 } from "./digest.js";
 export { recordedControlValues, recordedRunSettings, type ControlRecord, type RecordedControl } from "./controls.js";
 export * from "./charts/index.js";
+export { referenceProblems, type ReferenceProblem } from "./reference-check.js";
 export { DEFAULT_RTOL, checkDataPins, compareOutputs, numbersAgree, recordedOutputs, relativeDifference, type CompareOptions, type DifferenceKind, type OutputDifference, type PinCheck } from "./verify.js";

@@ -86,3 +86,18 @@ export async function readDataFile(documentPath: string, dataPath: string): Prom
   }
   return new Uint8Array(await r.arrayBuffer());
 }
+
+/** Writes a new document and its data files (paths relative to it); refused (409) when a file is in the way. */
+export async function createDocument(path: string, text: string, files: readonly { path: string; bytes: Uint8Array }[]): Promise<{ path: string; sha256: string }> {
+  const base64 = (bytes: Uint8Array): string => {
+    let s = "";
+    for (let i = 0; i < bytes.length; i += 0x8000) s += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+    return btoa(s);
+  };
+  const r = await fetch(`api/new?path=${encodeURIComponent(path)}`, {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify({ text, files: files.map((f) => ({ path: f.path, base64: base64(f.bytes) })) }),
+  });
+  return json<{ path: string; sha256: string }>(r);
+}

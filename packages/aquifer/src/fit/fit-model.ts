@@ -247,6 +247,11 @@ const PROFILE_TRIGGER = 0.35;
 const POORLY_DETERMINED = 10;
 const NOT_IDENTIFIED = 1000;
 
+/** " m2/d" for a unit, nothing for a dimensionless quantity ("1"). */
+function unitSuffix(unit: string): string {
+  return unit === "1" || unit === "" ? "" : ` ${unit}`;
+}
+
 function formatNumber(v: number): string {
   return Number(v.toPrecision(3)).toString();
 }
@@ -716,12 +721,12 @@ function assemble(
     const width = fp.ci95[1] / fp.ci95[0];
     if (width > NOT_IDENTIFIED) {
       errors.push(
-        `${fp.name} is not identified by these data: its 95 % interval ${formatNumber(fp.ci95[0])} to ${formatNumber(fp.ci95[1])} ${fp.unit} spans a factor of ` +
+        `${fp.name} is not identified by these data: its 95 % interval ${formatNumber(fp.ci95[0])} to ${formatNumber(fp.ci95[1])}${unitSuffix(fp.unit)} spans a factor of ` +
           `${formatNumber(width)}. The estimate is arbitrary; fix ${fp.name} from other evidence or add data that constrain it.`,
       );
     } else if (width > POORLY_DETERMINED) {
       warnings.push(
-        `${fp.name} is poorly determined: its 95 % interval spans a factor of ${formatNumber(width)} (${formatNumber(fp.ci95[0])} to ${formatNumber(fp.ci95[1])} ${fp.unit}).`,
+        `${fp.name} is poorly determined: its 95 % interval spans a factor of ${formatNumber(width)} (${formatNumber(fp.ci95[0])} to ${formatNumber(fp.ci95[1])}${unitSuffix(fp.unit)}).`,
       );
     }
   }

@@ -11,7 +11,7 @@ import { cellLine, execute } from "../execute.js";
 import type { Io } from "../io.js";
 import { checkPins, loadDocument, pinChangedMessage } from "../load.js";
 import { referenceProblemLine, referenceProblems } from "../references-check.js";
-import { findReferences } from "@conebook/document";
+import { REVIEW_ENTRY_KINDS, findReferences, reviewNotes, type ConebookDocument } from "@conebook/document";
 import { recordedControlValues, runOverrides } from "../settings.js";
 import { AQUIFER_VERSION } from "../versions.js";
 
@@ -26,7 +26,8 @@ Reruns the document FILE with the template parameters and control values recorde
 fresh outputs with the recorded ones: numbers within a relative tolerance, text exactly, tables cell by cell,
 charts by their specification and inline data. Narrative references ({=CELL/ROW/COLUMN}) must resolve in the
 fresh outputs to the number they resolve to in the recorded ones. Prints each difference with the cell id, its
-line in FILE, the place inside the output, and the recorded and fresh values.
+line in FILE, the place inside the output, and the recorded and fresh values. Lists the document's review
+notes, open and resolved, at their lines (notes do not change the exit code).
 
 Options:
   --rtol R   relative tolerance for numbers, |a - b| <= R max(|a|, |b|) + A (default ${DEFAULT_RTOL}: runs are
@@ -71,6 +72,31 @@ export function differenceLine(shown: string, line: number, d: OutputDifference)
   }
 }
 
+const NOTE_TEXT_SHOWN = 80;
+
+/**
+ * The lines listing the document's review notes (docs/format.md, review notes), open and resolved, each at its
+ * marker's line with its first entry; nothing when the document has none.
+ */
+export function reviewNoteLines(shown: string, doc: ConebookDocument): string[] {
+  const notes = reviewNotes(doc);
+  if (notes.length === 0) return [];
+  const open = notes.filter((n) => n.status === "open").length;
+  const out = [`${shown}: ${notes.length} review note${notes.length === 1 ? "" : "s"}, ${open} open, ${notes.length - open} resolved:`];
+  for (const n of notes) {
+    const first = n.entries[0];
+    const word = first ? REVIEW_ENTRY_KINDS.find((k) => k.kind === first.kind)!.word : "(empty)";
+    const line = first?.text.split("\n")[0] ?? "";
+    const text = line.length > NOTE_TEXT_SHOWN ? `${line.slice(0, NOTE_TEXT_SHOWN - 1)}…` : line;
+    const replies = n.entries.length - 1;
+    out.push(
+      `${place(shown, n.at.line)}: review note ${n.id} on cell ${n.on}: ${n.status}: ${word}${first?.who ? ` from ${first.who}` : ""}${text ? `: ${text}` : ""}` +
+        `${replies > 0 ? ` (${replies} more entr${replies === 1 ? "y" : "ies"})` : ""}`,
+    );
+  }
+  return out;
+}
+
 /** Runs the command; returns the exit code. */
 export async function verifyCommand(argv: readonly string[], io: Io): Promise<number> {
   const args = parseArgs(argv, VERIFY_OPTIONS, "verify");
@@ -100,6 +126,7 @@ export async function verifyCommand(argv: readonly string[], io: Io): Promise<nu
   const versionNote =
     recordedWith === AQUIFER_VERSION ? `aquifer ${AQUIFER_VERSION}` : `recorded with aquifer ${recordedWith ?? "(unknown version)"}, now ${AQUIFER_VERSION}`;
 
+  for (const line of reviewNoteLines(loaded.shown, doc)) io.out(line);
   if (diffs.length === 0 && refProblems.length === 0) {
     io.out(`${loaded.shown}: verified: all ${outputCount} recorded outputs of ${cells} cells${refNote} match (rtol ${rtol}${atol ? `, atol ${atol}` : ""}; ${versionNote})`);
     return EXIT.ok;

@@ -4,9 +4,9 @@
  * atomically only when the file on disk is still the one the page opened.
  */
 import { createHash } from "node:crypto";
-import { readdir, readFile, stat } from "node:fs/promises";
-import { basename, dirname, join, relative } from "node:path";
-import { DocumentError, parseDocument } from "@conebook/document";
+import { mkdir, readdir, readFile, realpath, stat } from "node:fs/promises";
+import { basename, dirname, join, relative, sep } from "node:path";
+import { DocumentError, isSafeRelativePath, parseDocument } from "@conebook/document";
 import { checkDataPins, type PinCheck } from "@conebook/kernel";
 import { writeFileAtomic } from "../atomic-write.js";
 import { PathRefused, resolveExisting, resolveForWrite } from "./paths.js";
@@ -133,4 +133,57 @@ export async function saveCopy(
     return candidate;
   }
   throw new Error(`no free name for a copy of ${basename(path)} (copy-1 to copy-999 exist); remove some copies`);
+}
+
+/** Creates the folder `full` (absolute, below the root) when missing, after checking its nearest existing ancestor lies inside the root. */
+async function ensureFolder(rootReal: string, full: string, shown: string): Promise<void> {
+  let probe = full;
+  for (;;) {
+    try {
+      const real = await realpath(probe);
+      const rel = relative(rootReal, real);
+      if (rel.startsWith("..") || rel.startsWith(sep)) throw new PathRefused(`${JSON.stringify(shown)} is refused: its folder lies outside the served folder (through a symbolic link)`);
+      break;
+    } catch (e) {
+      if ((e as NodeJS.ErrnoException).code !== "ENOENT") throw e;
+      probe = dirname(probe);
+    }
+  }
+  await mkdir(full, { recursive: true });
+}
+
+/** The outcome of making a new document. */
+export type CreateOutcome = { status: "created"; sha256: string } | { status: "exists"; path: string; reason: string };
+
+/**
+ * Writes a new document (made by the page's template form) and its data files: the data files first (each at a
+ * path relative to the document, refused when a different file is already there, kept when the same bytes are),
+ * then the document, never over an existing file. Writes are atomic.
+ */
+export async function createDocument(
+  rootReal: string,
+  path: string,
+  text: string,
+  files: readonly { path: string; bytes: Uint8Array }[],
+  write: (path: string, text: string) => Promise<void> = writeFileAtomic,
+): Promise<CreateOutcome> {
+  if (!path.endsWith(".cone.md")) throw new PathRefused(`${JSON.stringify(path)} is refused: only Conebook documents (*.cone.md) are made`);
+  const full = await resolveForWrite(rootReal, path);
+  if (await exists(full)) return { status: "exists", path, reason: `${path} already exists; choose another file name` };
+  const targets: { full: string; bytes: Uint8Array; shown: string }[] = [];
+  for (const f of files) {
+    if (!isSafeRelativePath(f.path)) throw new PathRefused(`${JSON.stringify(f.path)} is refused: a data path must be relative to the document and stay beside it`);
+    const shown = dataPathFromRoot(path, f.path);
+    await ensureFolder(rootReal, dirname(join(rootReal, ...shown.split("/"))), shown);
+    const target = await resolveForWrite(rootReal, shown);
+    if (await exists(target)) {
+      if (sha256Of(await readFile(target)) !== sha256Of(f.bytes)) return { status: "exists", path: shown, reason: `${shown} already exists with other contents; rename the data file before choosing it` };
+      continue;
+    }
+    targets.push({ full: target, bytes: f.bytes, shown });
+  }
+  await ensureFolder(rootReal, dirname(full), path);
+  for (const t of targets) await writeFileAtomic(t.full, t.bytes);
+  await write(await resolveForWrite(rootReal, path), text);
+  return { status: "created", sha256: sha256Of(text) };
 }

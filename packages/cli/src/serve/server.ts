@@ -8,6 +8,8 @@
  *   PUT  /TOKEN/api/document?path=P    body { text, baseSha256 } -> { sha256 } | 409 { text, sha256 }
  *   POST /TOKEN/api/copy?path=P        body { text } -> { path } (a new file beside P, never over one)
  *   GET  /TOKEN/api/data?document=P&path=D   the bytes of data file D pinned by document P
+ *   POST /TOKEN/api/new?path=P         body { text, files: [{ path, base64 }] } -> { path, sha256 } | 409 (a new
+ *                                      document from the template form, with its data files; never over a file)
  *
  * Errors are JSON { error } with a message the page shows as it is.
  */
@@ -16,7 +18,7 @@ import type { AddressInfo } from "node:net";
 import { realpath } from "node:fs/promises";
 import { basename } from "node:path";
 import type { PageAsset } from "./assets.js";
-import { listDocuments, openDocument, readDataFile, saveCopy, saveDocument } from "./documents.js";
+import { createDocument, listDocuments, openDocument, readDataFile, saveCopy, saveDocument } from "./documents.js";
 import { PathRefused } from "./paths.js";
 import { checkRequest, newToken, SECURITY_HEADERS } from "./security.js";
 
@@ -180,7 +182,24 @@ export async function startServeServer(options: ServeOptions): Promise<RunningSe
       send(res, 200, Buffer.from(bytes), "application/octet-stream");
       return 200;
     }
-    const known = ["session", "document", "copy", "data"].includes(route);
+    if (route === "new" && method === "POST") {
+      const path = queryParam(url, "path");
+      const body = await readBody(req, limit);
+      const text = stringField(body, "text");
+      const raw = (body as { files?: unknown }).files ?? [];
+      if (!Array.isArray(raw) || raw.some((f) => typeof f?.path !== "string" || typeof f?.base64 !== "string")) throw new HttpError(400, 'the request body needs "files": a list of { path, base64 }');
+      const files = (raw as { path: string; base64: string }[]).map((f) => ({ path: f.path, bytes: new Uint8Array(Buffer.from(f.base64, "base64")) }));
+      let outcome;
+      try {
+        outcome = await serialized(() => createDocument(rootReal, path, text, files, options.writeFile));
+      } catch (e) {
+        fileError(e, `making ${path}`);
+      }
+      if (outcome.status === "exists") throw new HttpError(409, outcome.reason);
+      sendJson(res, 200, { path, sha256: outcome.sha256 });
+      return 200;
+    }
+    const known = ["session", "document", "copy", "data", "new"].includes(route);
     throw new HttpError(known ? 405 : 404, known ? `method ${method} is not served on api/${route}` : `no such API: api/${route}`);
   }
 

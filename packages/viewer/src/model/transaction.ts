@@ -19,7 +19,7 @@ export interface CellSplice {
 }
 
 /** What a transaction was, for grouping undo steps and for observers. */
-export type UserEvent = "edit" | "insert" | "delete" | "move" | "kind" | "record" | "header" | "undo" | "redo";
+export type UserEvent = "edit" | "insert" | "delete" | "move" | "kind" | "record" | "header" | "undo" | "redo" | "windows" | "note";
 
 /** One change of the document. */
 export interface Transaction {

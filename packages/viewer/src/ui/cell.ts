@@ -8,17 +8,21 @@
  */
 import { LitElement, css, html, nothing, type PropertyValues } from "lit";
 import { narrativeFragment } from "./narrative.js";
-import { chartSpecSchema, renderNarrative, validateJsonSchema, type Cell, type DataSlot, type Diagnostic } from "@conebook/document";
+import { chartSpecSchema, readReviewThread, renderNarrative, validateJsonSchema, type Cell, type DataSlot, type Diagnostic } from "@conebook/document";
 import { parseDataTable, type PinCheck } from "@conebook/kernel";
 import type { ApiEntry } from "../model/api-catalogue.js";
 import { CELL_KINDS, readChartSource } from "../model/cells.js";
+import type { CellReview } from "../model/review.js";
 import type { ShownResult } from "../model/runs.js";
+import type { NoteAction } from "./notes.js";
 import type { CbEditor, EditorMark } from "./editor.js";
 import { formatMs, formatNumber } from "./format.js";
 import { icons } from "./icons.js";
 import { controls, tokens } from "./theme.js";
 import "./editor.js";
+import "./notes.js";
 import "./outputs.js";
+import "./review-cell.js";
 
 /** Rows of a data table shown in the cell. */
 const DATA_ROWS_SHOWN = 500;
@@ -29,6 +33,7 @@ export interface CellCommand {
   cellId: string;
   text?: string;
   kind?: string;
+  note?: NoteAction;
 }
 
 const STATUS_WORDS: Record<string, string> = {
@@ -54,6 +59,10 @@ export class CbCell extends LitElement {
     count: { type: Number },
     editing: { type: Boolean, reflect: true },
     selected: { type: Boolean, reflect: true },
+    review: { attribute: false },
+    noteName: { type: String },
+    controlValues: { attribute: false },
+    writingNote: { state: true },
   };
   declare cell: Cell;
   declare shown: ShownResult | undefined;
@@ -69,6 +78,13 @@ export class CbCell extends LitElement {
   declare count: number;
   declare editing: boolean;
   declare selected: boolean;
+  /** What the review view says about this cell, while a review is shown. */
+  declare review: CellReview | undefined;
+  /** The name a new note or answer is signed with, at first. */
+  declare noteName: string;
+  /** Values of controls changed in the page and not yet recorded, by name. */
+  declare controlValues: Readonly<Record<string, number>>;
+  declare writingNote: boolean;
 
   static override styles = [
     tokens,
@@ -257,6 +273,21 @@ export class CbCell extends LitElement {
     this.count = 1;
     this.editing = false;
     this.selected = false;
+    this.review = undefined;
+    this.noteName = "";
+    this.controlValues = {};
+    this.writingNote = false;
+    this.addEventListener("cb-note-action", (e) => {
+      e.stopPropagation();
+      const action = (e as CustomEvent<NoteAction>).detail;
+      if (action.action === "add" || action.action === "cancel") this.writingNote = false;
+      if (action.action !== "cancel") this.#send("note", { note: action });
+    });
+  }
+
+  /** Opens the form for a new review note on this cell. */
+  writeNote(): void {
+    this.writingNote = true;
   }
 
   override willUpdate(changed: PropertyValues<this>): void {
@@ -337,7 +368,7 @@ export class CbCell extends LitElement {
     const c = this.cell;
     const shown = this.shown;
     const status = shown?.status;
-    const kindLabel = CELL_KINDS.find((k) => k.kind === c.kind)?.label ?? c.kind;
+    const kindLabel = c.kind === "narrative" && c.review ? "review note" : (CELL_KINDS.find((k) => k.kind === c.kind)?.label ?? c.kind);
     const executable = c.kind !== "narrative";
     return html`<div class="bar">
       <span class="kind">${kindLabel}</span>
@@ -357,6 +388,7 @@ export class CbCell extends LitElement {
       </select>
       <button @click=${() => this.#send("move-up")} ?disabled=${this.position === 0} aria-label=${`Move cell ${c.id} up`} title="Move up (Alt+Shift+Up)">${icons.up}</button>
       <button @click=${() => this.#send("move-down")} ?disabled=${this.position >= this.count - 1} aria-label=${`Move cell ${c.id} down`} title="Move down (Alt+Shift+Down)">${icons.down}</button>
+      ${c.kind === "narrative" && c.review ? nothing : html`<button @click=${() => (this.writingNote = !this.writingNote)} aria-label=${`Write a review note on cell ${c.id}`} title="Write a review note on this cell (Alt+Shift+R)">note</button>`}
       <button @click=${() => this.#send("add-below")} aria-label=${`Add a cell below ${c.id}`} title="Add a code cell below (Alt+Shift+N)">${icons.add}</button>
       <button @click=${() => this.#send("delete-cell")} aria-label=${`Delete cell ${c.id}`} title="Delete (Alt+Shift+Delete; undo brings it back)">${icons.remove}</button>
     </div>`;
@@ -398,6 +430,7 @@ export class CbCell extends LitElement {
       if (this.editing) {
         return html`<cb-editor .value=${c.source} language="markdown" label=${`Text of cell ${c.id} (Markdown)`} .marks=${marks} hint="Write Markdown here; Escape to finish" @cb-edit=${edit}></cb-editor>`;
       }
+      if (c.review) return html`<cb-note .on=${c.review.on} .status=${c.review.status} .entries=${readReviewThread(c.source)} .who=${this.noteName}></cb-note>`;
       return html`<div class="prose" @dblclick=${() => void this.focusEditor()}>${narrativeFragment(renderNarrative(c.source))}</div>`;
     }
     if (c.kind === "code") {
@@ -428,7 +461,9 @@ export class CbCell extends LitElement {
     return html`<div class="frame" tabindex="0" aria-label=${`${CELL_KINDS.find((k) => k.kind === c.kind)?.label ?? c.kind} cell ${c.id}, ${this.position + 1} of ${this.count}`} @keydown=${this.#frameKey} @focusin=${() => !this.selected && this.#send("select")}>
       ${this.#bar()} ${this.#body()}
       ${docProblems.length && c.kind !== "chart" ? html`<ul class="problems" role="alert">${docProblems.map((p) => html`<li>line ${p.line}: ${p.message}</li>`)}</ul>` : nothing}
-      ${c.kind !== "narrative" && this.shown ? html`<cb-outputs .outputs=${this.shown.outputs} cellId=${c.id} file=${this.file} .sourceLine=${this.shown.previous ? undefined : this.shown.run?.sourceLines[c.id]}></cb-outputs>` : nothing}
+      ${c.kind !== "narrative" && this.shown ? html`<cb-outputs .outputs=${this.shown.outputs} cellId=${c.id} file=${this.file} .controlValues=${this.controlValues} .sourceLine=${this.shown.previous ? undefined : this.shown.run?.sourceLines[c.id]}></cb-outputs>` : nothing}
+      ${this.review ? html`<cb-review-cell .review=${this.review} cellId=${c.id}></cb-review-cell>` : nothing}
+      ${this.writingNote ? html`<cb-note-form cellId=${c.id} who=${this.noteName}></cb-note-form>` : nothing}
     </div>`;
   }
 }

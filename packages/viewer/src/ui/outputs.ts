@@ -20,12 +20,15 @@ export class CbOutputs extends LitElement {
     file: { type: String },
     /** Line of the cell's first source line in the text that ran, to give errors an editor line. */
     sourceLine: { type: Number },
+    controlValues: { attribute: false },
     expanded: { state: true },
   };
   declare outputs: readonly CellOutput[];
   declare cellId: string;
   declare file: string;
   declare sourceLine: number | undefined;
+  /** Values of controls changed in the page and not yet recorded, by name (shown in the inputs until a run uses them). */
+  declare controlValues: Readonly<Record<string, number>>;
   declare expanded: Set<number>;
 
   static override styles = css`
@@ -88,6 +91,17 @@ export class CbOutputs extends LitElement {
     td.num {
       text-align: right;
     }
+    .control input[type="number"] {
+      font: inherit;
+      width: 7rem;
+    }
+    .control input[type="range"] {
+      width: 12rem;
+    }
+    .control .description {
+      flex-basis: 100%;
+      font-size: 0.82rem;
+    }
     .control {
       display: flex;
       gap: 0.5rem;
@@ -126,6 +140,7 @@ export class CbOutputs extends LitElement {
     this.cellId = "";
     this.file = "";
     this.sourceLine = undefined;
+    this.controlValues = {};
     this.expanded = new Set();
   }
 
@@ -164,10 +179,44 @@ export class CbOutputs extends LitElement {
         return html`<pre class="json">${JSON.stringify(o.value, null, 2) ?? "null"}</pre>`;
       case "control": {
         const unit = o.unit ? ` ${o.unit}` : "";
+        const pending = Object.hasOwn(this.controlValues, o.name) ? this.controlValues[o.name]! : undefined;
+        const value = pending ?? o.value;
+        const ranged = o.min !== undefined && o.max !== undefined;
+        const change = (raw: string, commit: boolean) => {
+          const v = Number(raw);
+          if (raw.trim() === "" || !Number.isFinite(v)) return;
+          this.dispatchEvent(new CustomEvent("cb-control", { detail: { name: o.name, value: v, commit }, bubbles: true, composed: true }));
+        };
         return html`<div class="control" role="group" aria-label=${`adjustable value ${o.name}`}>
-          <strong>${o.name}</strong> = <span class="number">${formatNumber(o.value)}${unit}</span>
-          <span class="unit">default ${formatNumber(o.default)}${unit}${o.min !== undefined && o.max !== undefined ? `, range ${formatNumber(o.min)} to ${formatNumber(o.max)}${unit}` : ""}</span>
-          ${o.description ? html`<span>${o.description}</span>` : nothing}
+          <label for=${`control-${o.name}`}><strong>${o.name}</strong></label>
+          <input
+            id=${`control-${o.name}`}
+            class="control-number"
+            type="number"
+            aria-label=${`${o.name}${unit ? ` in${unit}` : ""}`}
+            .value=${String(value)}
+            min=${o.min ?? nothing}
+            max=${o.max ?? nothing}
+            step="any"
+            @change=${(e: Event) => change((e.target as HTMLInputElement).value, true)}
+          />
+          <span class="unit">${o.unit ?? ""}</span>
+          ${ranged
+            ? html`<input
+                class="control-slider"
+                type="range"
+                aria-label=${`${o.name} slider, ${formatNumber(o.min!)} to ${formatNumber(o.max!)}${unit}`}
+                min=${o.min!}
+                max=${o.max!}
+                step=${(o.max! - o.min!) / 200}
+                .value=${String(value)}
+                @input=${(e: Event) => change((e.target as HTMLInputElement).value, false)}
+                @change=${(e: Event) => change((e.target as HTMLInputElement).value, true)}
+              />`
+            : nothing}
+          <span class="unit">used ${formatNumber(o.value)}${unit}; default ${formatNumber(o.default)}${unit}${ranged ? `, range ${formatNumber(o.min!)} to ${formatNumber(o.max!)}${unit}` : ""}</span>
+          ${pending !== undefined && pending !== o.value ? html`<span class="unit" role="status">rerunning with ${formatNumber(pending)}${unit}…</span>` : nothing}
+          ${o.description ? html`<span class="description">${o.description}</span>` : nothing}
         </div>`;
       }
       case "error": {

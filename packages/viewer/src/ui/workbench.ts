@@ -6,12 +6,17 @@
  */
 import { LitElement, css, html, nothing } from "lit";
 import { repeat } from "lit/directives/repeat.js";
-import { DocumentError, parseDocument, serializeDocument, type Cell, type ConebookDocument, type Diagnostic } from "@conebook/document";
-import type { PinCheck } from "@conebook/kernel";
+import { DocumentError, parseDocument, readReviewThread, serializeDocument, writeReviewThread, type Cell, type ConebookDocument, type Diagnostic } from "@conebook/document";
+import { checkDataPins, recordedOutputs, type PinCheck } from "@conebook/kernel";
 import apiDoc from "../../../../docs/api.md?raw";
 import { KernelClient } from "../kernel/client.js";
 import { apiCatalogue } from "../model/api-catalogue.js";
-import { CELL_KINDS, changeKind, newCell, withSource } from "../model/cells.js";
+import { CELL_KINDS, changeKind, freshId, newCell, withSource } from "../model/cells.js";
+import { globalName, keptMatchSource, type ObservationRecord } from "../model/match.js";
+import { PROBE_CELL_ID, declaredNames, readProbe, withProbe } from "../model/records.js";
+import { headlineNumbers, reviewRun, whatMoves, type Review } from "../model/review.js";
+import { isTemplate } from "../model/template-form.js";
+import { WINDOWS_CELL_ID, readWindows, windowsCell, type WindowSet } from "../model/windows.js";
 import { lineDiff, type DiffLine } from "../model/line-diff.js";
 import { outlineOf } from "../model/outline.js";
 import { dropRecovery, keepRecovery, readRecovery, type RecoveryCopy } from "../model/recovery.js";
@@ -23,13 +28,18 @@ import { deleteCell, insertCell, moveCell, replaceCell, type Transaction } from 
 import * as server from "../server-api.js";
 import { PAGE_CAUTION } from "./caution.js";
 import type { CbCell, CellCommand } from "./cell.js";
+import type { KeepRequest } from "./match-panel.js";
+import { rememberedName } from "./notes.js";
+import type { TemplateMake } from "./template-form.js";
 import type { EditorMark } from "./editor.js";
-import { formatMs } from "./format.js";
+import { formatMs, formatNumber } from "./format.js";
 import { SHORTCUTS } from "./help.js";
 import { icons } from "./icons.js";
 import { controls, tokens } from "./theme.js";
 import "./cell.js";
 import "./editor.js";
+import "./match-panel.js";
+import "./template-form.js";
 
 const catalogue = apiCatalogue(apiDoc);
 
@@ -48,6 +58,14 @@ export function sourceLinesOf(text: string): Record<string, number> {
   }
   return out;
 }
+/** A kernel worker (the literal `new Worker(new URL(...))` form lets Vite bundle the worker). */
+function makeKernelWorker(): Worker {
+  return new Worker(new URL("../kernel/kernel-worker.ts", import.meta.url), { type: "module" });
+}
+
+/** The review shown: the verdicts, the document reviewed and when. */
+type ReviewShown = Review & { doc: ConebookDocument; ms: number; at: number };
+
 const RECOVERY_DELAY_MS = 400;
 const DEFAULT_CELL_LIMIT_MS = 10_000;
 
@@ -77,6 +95,12 @@ export class CbWorkbench extends LitElement {
     recovery: { state: true },
     documents: { state: true },
     loading: { state: true },
+    matchOpen: { state: true },
+    matchRecords: { state: true },
+    matchProblem: { state: true },
+    reviewShown: { state: true },
+    reviewing: { state: true },
+    templateOpen: { state: true },
   };
   declare notice: Notice | undefined;
   declare helpOpen: boolean;
@@ -85,6 +109,12 @@ export class CbWorkbench extends LitElement {
   declare recovery: RecoveryCopy | undefined;
   declare documents: string[];
   declare loading: boolean;
+  declare matchOpen: boolean;
+  declare matchRecords: ObservationRecord[] | undefined;
+  declare matchProblem: string | undefined;
+  declare reviewShown: ReviewShown | undefined;
+  declare reviewing: boolean;
+  declare templateOpen: boolean;
 
   store: DocumentStore | undefined;
   path = "";
@@ -98,7 +128,10 @@ export class CbWorkbench extends LitElement {
   selectedId: string | undefined;
   editingNarrative = new Set<string>();
   saving = false;
-  readonly kernel = new KernelClient(() => new Worker(new URL("../kernel/kernel-worker.ts", import.meta.url), { type: "module" }));
+  readonly kernel = new KernelClient(makeKernelWorker);
+  /** Values of controls changed in the page, by name: every run uses them until a save records them. */
+  controlOverrides: Record<string, number> = {};
+  #pendingRerun = false;
   #runIds = 1;
   #recoveryTimer: ReturnType<typeof setTimeout> | undefined;
   #unsubscribe: (() => void) | undefined;
@@ -315,6 +348,50 @@ export class CbWorkbench extends LitElement {
       .doclist a {
         color: var(--cb-action);
       }
+      .banner.review.ok {
+        border-color: var(--cb-ok);
+        background: #f1f8f3;
+      }
+      .banner .grow {
+        flex: 1;
+      }
+      .banner .hint {
+        font-size: 0.82rem;
+        color: var(--cb-muted);
+        margin: 0.2rem 0;
+      }
+      button.link {
+        border: none;
+        background: none;
+        color: var(--cb-action);
+        text-decoration: underline;
+        padding: 0;
+      }
+      .moves {
+        max-height: 16rem;
+        overflow: auto;
+      }
+      .moves table,
+      .banner table {
+        border-collapse: collapse;
+        font-size: 0.82rem;
+        font-variant-numeric: tabular-nums;
+      }
+      .moves td,
+      .moves th {
+        padding: 0.1rem 0.5rem;
+        border-bottom: 1px solid #ece8de;
+        text-align: left;
+      }
+      .moves td:not(:nth-child(2)) {
+        white-space: nowrap;
+        font-variant-numeric: tabular-nums;
+      }
+      dialog.template-form {
+        width: min(64rem, 94vw);
+        max-height: 90vh;
+        overflow: auto;
+      }
       @media (max-width: 60rem) {
         .layout {
           grid-template-columns: minmax(0, 1fr);
@@ -336,7 +413,23 @@ export class CbWorkbench extends LitElement {
     this.recovery = undefined;
     this.documents = [];
     this.loading = true;
+    this.matchOpen = false;
+    this.matchRecords = undefined;
+    this.matchProblem = undefined;
+    this.reviewShown = undefined;
+    this.reviewing = false;
+    this.templateOpen = false;
     this.addEventListener("cb-cell", (e) => this.#onCell((e as CustomEvent<CellCommand>).detail));
+    this.addEventListener("cb-match-keep", (e) => this.#keep((e as CustomEvent<KeepRequest>).detail));
+    this.addEventListener("cb-windows-change", (e) => {
+      const d = (e as CustomEvent<{ set: WindowSet; message: string }>).detail;
+      this.#windowsChange(d.set, d.message);
+    });
+    this.addEventListener("cb-match-close", () => (this.matchOpen = false));
+    this.addEventListener("cb-control", (e) => this.#control((e as CustomEvent<{ name: string; value: number; commit: boolean }>).detail));
+    this.addEventListener("cb-note-goto", (e) => this.#goTo((e as CustomEvent<{ id: string }>).detail.id));
+    this.addEventListener("cb-template-make", (e) => void this.#templateMake((e as CustomEvent<TemplateMake>).detail));
+    this.addEventListener("cb-template-close", () => (this.templateOpen = false));
     this.addEventListener("cb-key", (e) => this.#onKey((e as CustomEvent<{ command: string }>).detail.command, e));
     this.addEventListener("keydown", (e) => this.#onKeydown(e));
   }
@@ -395,6 +488,11 @@ export class CbWorkbench extends LitElement {
     this.runs = [];
     this.conflict = undefined;
     this.editingNarrative.clear();
+    this.controlOverrides = {};
+    this.reviewShown = undefined;
+    this.matchOpen = false;
+    this.matchRecords = undefined;
+    this.templateOpen = false;
     const url = new URL(location.href);
     url.searchParams.set("open", path);
     history.replaceState(null, "", url);
@@ -523,6 +621,9 @@ export class CbWorkbench extends LitElement {
         this.editingNarrative.add(cell.id);
         this.requestUpdate();
         return;
+      case "note":
+        if (c.note) this.#note(cell, c.note);
+        return;
       case "done-narrative":
         this.editingNarrative.delete(cell.id);
         this.requestUpdate();
@@ -561,6 +662,10 @@ export class CbWorkbench extends LitElement {
       case "help":
         this.helpOpen = !this.helpOpen;
         return;
+      case "match":
+        return void this.openMatch();
+      case "review":
+        return void this.review();
     }
     if (!cell) return;
     switch (command) {
@@ -581,6 +686,9 @@ export class CbWorkbench extends LitElement {
         void this.updateComplete.then(() => this.#cellElement(fresh.id)?.focusEditor());
         return;
       }
+      case "write-note":
+        this.#cellElement(cell.id)?.writeNote();
+        return;
       case "delete-cell":
         this.#dispatch(deleteCell(doc, cell.id));
         this.#say(`Deleted cell ${cell.id}; Ctrl+Z brings it back`);
@@ -619,6 +727,9 @@ export class CbWorkbench extends LitElement {
     else if (e.altKey && e.shiftKey && e.code === "KeyN") command = "add-below";
     else if (e.altKey && e.shiftKey && e.code === "KeyK") command = "next-kind";
     else if (e.altKey && e.shiftKey && e.key === "Delete") command = "delete-cell";
+    else if (e.altKey && e.shiftKey && e.code === "KeyM") command = "match";
+    else if (e.altKey && e.shiftKey && e.code === "KeyV") command = "review";
+    else if (e.altKey && e.shiftKey && e.code === "KeyR") command = "write-note";
     if (!command) return;
     e.preventDefault();
     const cell = this.store?.doc.cells.find((c) => c.id === this.selectedId);
@@ -648,15 +759,7 @@ export class CbWorkbench extends LitElement {
     }
     const sourceLines = sourceLinesOf(text);
     let record = startRun(this.#runIds++, mode, runDoc, cellId, sourceLines, performance.now());
-    const files: Record<string, Uint8Array> = {};
-    for (const cell of runDoc.cells) {
-      if (cell.kind !== "data" || !cell.file) continue;
-      try {
-        files[cell.file.path] = await server.readDataFile(this.path, cell.file.path);
-      } catch {
-        // The kernel reports a file it was not sent, at the data cell.
-      }
-    }
+    const files = await this.#files(runDoc);
     this.runs = [...this.runs.slice(-2), record];
     const update = (next: RunRecord) => {
       record = next;
@@ -667,7 +770,7 @@ export class CbWorkbench extends LitElement {
     this.#say(`Running ${mode === "cell" ? `up to cell ${cellId}` : mode === "from" ? `from cell ${cellId} to the end` : "the whole document"}…`);
     this.requestUpdate();
     const limit = doc.header.timeLimitMs ?? DEFAULT_CELL_LIMIT_MS;
-    const end = await this.kernel.run({ text, file: this.path, ...recordedRunSettings(doc), files }, limit, (p) => update(withProgress(record, p.cellId, p.status, p.elapsedMs)));
+    const end = await this.kernel.run({ text, file: this.path, ...this.#settings(doc), files }, limit, (p) => update(withProgress(record, p.cellId, p.status, p.elapsedMs)));
     performance.mark("conebook-result-received");
     if (end.type === "result") {
       update(withResult(record, end.result, performance.now()));
@@ -688,6 +791,216 @@ export class CbWorkbench extends LitElement {
     }
     this.#mark("conebook-ran");
     this.dispatchEvent(new CustomEvent("cb-run-ended", { detail: { id: record.id } }));
+    if (this.#pendingRerun) {
+      this.#pendingRerun = false;
+      void this.run("all");
+    }
+  }
+
+  /** What a run gets: the recorded settings (as conebook run and verify), with the controls changed in the page over them. */
+  #settings(doc: ConebookDocument): ReturnType<typeof recordedRunSettings> {
+    const recorded = recordedRunSettings(doc);
+    return { ...recorded, overrides: { ...recorded.overrides, ...this.controlOverrides } };
+  }
+
+  /** The bytes of the data files `doc` pins, read through the server (a file that cannot be read is left out). */
+  async #files(doc: ConebookDocument): Promise<Record<string, Uint8Array>> {
+    const files: Record<string, Uint8Array> = {};
+    for (const cell of doc.cells) {
+      if (cell.kind !== "data" || !cell.file || Object.hasOwn(files, cell.file.path)) continue;
+      try {
+        files[cell.file.path] = await server.readDataFile(this.path, cell.file.path);
+      } catch {
+        // The kernel reports a file it was not sent, at the data cell.
+      }
+    }
+    return files;
+  }
+
+  /** A control changed in the page: the document is run again with the new value (the latest wins while a run is on). */
+  #control(c: { name: string; value: number; commit: boolean }): void {
+    if (this.controlOverrides[c.name] === c.value && !c.commit) return;
+    this.controlOverrides = { ...this.controlOverrides, [c.name]: c.value };
+    this.requestUpdate();
+    if (this.kernel.running) this.#pendingRerun = true;
+    else void this.run("all");
+  }
+
+  /** Waits until no run is in progress (at most `ms`); false when one still is. */
+  async #idle(ms = 60_000): Promise<boolean> {
+    const until = performance.now() + ms;
+    while (this.kernel.running && performance.now() < until) await new Promise((r) => setTimeout(r, 50));
+    return !this.kernel.running;
+  }
+
+  /** Opens the matching panel: one run of the document with a probe cell finds its observation records. */
+  async openMatch(): Promise<void> {
+    const store = this.store;
+    if (!store) return;
+    this.matchOpen = true;
+    this.matchRecords = undefined;
+    this.matchProblem = undefined;
+    this.#mark("conebook-match-loading");
+    if (!(await this.#idle())) {
+      this.matchProblem = "A run is still in progress; stop it (Ctrl+.) and open the panel again";
+      return;
+    }
+    const doc = store.doc;
+    let text: string;
+    try {
+      text = serializeDocument(withProbe(doc), { writeAssignedIds: false });
+    } catch (e) {
+      this.matchProblem = `The document cannot be run as it is: ${(e as Error).message}`;
+      return;
+    }
+    const end = await this.kernel.run({ text, file: this.path, ...this.#settings(doc), files: await this.#files(doc) }, doc.header.timeLimitMs ?? DEFAULT_CELL_LIMIT_MS, () => undefined);
+    if (end.type !== "result") {
+      this.matchProblem = `The document did not run to the end, so its records are not known: ${end.type === "failed" ? end.message : end.reason}`;
+      return;
+    }
+    this.matchRecords = readProbe(doc, end.result.outputs[PROBE_CELL_ID]);
+    if (end.result.status[PROBE_CELL_ID] !== "ok") {
+      const failed = Object.entries(end.result.status).filter(([, st]) => st === "error").map(([id]) => id);
+      this.matchProblem = `The document stopped at cell ${failed[0] ?? "?"} with an error, so its records are not known; run it and fix that cell first`;
+    }
+    this.#mark("conebook-match-ready");
+    void this.updateComplete.then(() => this.renderRoot.querySelector("cb-match")?.scrollIntoView({ block: "start" }));
+  }
+
+  /** "Keep": the match becomes a code cell after the record's cell (and after the data windows). */
+  #keep(req: KeepRequest): void {
+    const store = this.store;
+    if (!store) return;
+    const doc = store.doc;
+    const slug = req.record.name.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "") || "record";
+    const base = `match-${slug}-${req.choice.id}`.slice(0, 56);
+    const ids = new Set(doc.cells.map((c) => c.id));
+    let id = base;
+    for (let k = 2; ids.has(id); k++) id = `${base}-${k}`;
+    const names = new Set(declaredNames(doc).map((d) => d.name));
+    let name = globalName(id);
+    for (let k = 2; names.has(name); k++) name = `${globalName(id)}${k}`;
+    const windowsAt = doc.cells.findIndex((c) => c.id === WINDOWS_CELL_ID);
+    const reading = readWindows(doc);
+    const windowed = windowsAt >= 0 && "set" in reading;
+    let at = Math.max(doc.cells.findIndex((c) => c.id === req.record.cellId), windowsAt) + 1;
+    if (at <= 0) at = doc.cells.length;
+    while (doc.cells[at]?.id.startsWith("match-")) at++;
+    const cell: Cell = {
+      kind: "code",
+      language: "ts",
+      id,
+      source: keptMatchSource({ ...req, windowed, name }),
+      sourceStart: { line: 1, column: 1 },
+      outputs: [],
+    };
+    this.#dispatch({ ...insertCell(at, cell), focus: undefined });
+    this.#say(`Kept the match of ${req.record.name} as cell ${id} (${req.refined ? "refined by least squares from the matched values" : "the values as matched"}); run the whole document to see and record its outputs`, "ok");
+  }
+
+  /** New data windows: the data-windows cell is replaced (or made, after the first record's cell). */
+  #windowsChange(set: WindowSet, message: string): void {
+    const store = this.store;
+    if (!store) return;
+    const doc = store.doc;
+    const reading = readWindows(doc);
+    if ("problem" in reading) {
+      this.#say(reading.problem, "error");
+      return;
+    }
+    if (reading.cell) this.#dispatch({ ...replaceCell(doc, WINDOWS_CELL_ID, windowsCell(set, reading.cell), "windows"), focus: undefined });
+    else {
+      const owner = this.matchRecords?.[0]?.cellId;
+      const at = owner ? doc.cells.findIndex((c) => c.id === owner) + 1 : doc.cells.length;
+      this.#dispatch({ ...insertCell(at > 0 ? at : doc.cells.length, windowsCell(set, undefined)), userEvent: "windows", focus: undefined });
+    }
+    this.#say(`${message}. Written into cell ${WINDOWS_CELL_ID}; Ctrl+Z takes it back`, "ok");
+  }
+
+  /** A review note written, answered, resolved or reopened: a transaction on the note's narrative cell. */
+  #note(cell: Cell, action: NonNullable<CellCommand["note"]>): void {
+    const store = this.store!;
+    const doc = store.doc;
+    if (action.action === "add") {
+      let at = doc.cells.indexOf(cell) + 1;
+      for (let next = doc.cells[at]; next?.kind === "narrative" && next.review?.on === cell.id; next = doc.cells[at]) at++;
+      const id = freshId(doc, `${cell.id.slice(0, 52)}-note`);
+      const note: Cell = {
+        kind: "narrative",
+        id,
+        source: writeReviewThread([{ kind: action.kind, who: action.who, text: action.text }]),
+        sourceStart: { line: 1, column: 1 },
+        outputs: [],
+        review: { on: cell.id, status: action.kind === "accepted" ? "resolved" : "open" },
+      };
+      this.#dispatch({ ...insertCell(at, note), userEvent: "note" });
+      this.#say(`Review note ${id} on cell ${cell.id} written (${note.kind === "narrative" && note.review?.status}); it is saved with the document`, "ok");
+      return;
+    }
+    if (cell.kind !== "narrative" || !cell.review) return;
+    if (action.action === "reply") {
+      const entry = writeReviewThread([{ kind: action.kind, who: action.who, text: action.text }]);
+      const source = readReviewThread(cell.source).length ? `${cell.source}\n>\n${entry}` : entry;
+      this.#dispatch({ ...replaceCell(doc, cell.id, { ...cell, source }, "note"), focus: undefined });
+      this.#say(`Answer added to review note ${cell.id}`, "ok");
+    } else if (action.action === "status") {
+      this.#dispatch({ ...replaceCell(doc, cell.id, { ...cell, review: { ...cell.review, status: action.status } }, "note"), focus: undefined });
+      this.#say(`Review note ${cell.id} is ${action.status} now`, "ok");
+    }
+  }
+
+  /**
+   * The review view: the whole document rerun in a fresh worker with its recorded settings and compared with its
+   * recorded outputs by the kernel's compareOutputs and referenceProblems at DEFAULT_RTOL, as conebook verify does.
+   */
+  async review(): Promise<void> {
+    const store = this.store;
+    if (!store || this.reviewing) return;
+    this.reviewing = true;
+    this.#mark("conebook-reviewing");
+    const started = performance.now();
+    this.#say("Review: rerunning the whole document in a fresh kernel…");
+    const doc = store.doc;
+    try {
+      const text = serializeDocument(doc, { writeAssignedIds: false });
+      const files = await this.#files(doc);
+      const pins = await checkDataPins(doc, (path) => {
+        if (!Object.hasOwn(files, path)) throw new Error(`${path} cannot be read through the server`);
+        return files[path]!;
+      });
+      let fresh: Record<string, import("@conebook/document").CellOutput[]> = {};
+      if (pins.every((p) => p.status === "ok")) {
+        const client = new KernelClient(makeKernelWorker);
+        const end = await client.run({ text, file: this.path, ...recordedRunSettings(doc), files }, doc.header.timeLimitMs ?? DEFAULT_CELL_LIMIT_MS, () => undefined);
+        client.dispose();
+        if (end.type !== "result") {
+          this.#say(`The review could not rerun the document: ${end.type === "failed" ? end.message : end.reason}`, "error");
+          return;
+        }
+        fresh = end.result.outputs;
+      }
+      const review = reviewRun(doc, fresh, pins);
+      this.reviewShown = { ...review, doc, ms: performance.now() - started, at: performance.now() };
+      this.#say(`${review.summary}; reviewed in ${formatMs(performance.now() - started)}`, review.tone);
+    } finally {
+      this.reviewing = false;
+      this.#mark("conebook-reviewed");
+    }
+  }
+
+  async #templateMake(made: TemplateMake): Promise<void> {
+    try {
+      const r = await server.createDocument(made.path, made.text, made.files);
+      this.documents = (await server.getSession()).documents;
+      this.templateOpen = false;
+      await this.open(r.path);
+      this.#say(`Made ${r.path} from the template${made.files.length ? ` with ${made.files.map((f) => f.path).join(", ")}` : ""}; run it, check the note for the author, then save`, "ok");
+      this.#mark("conebook-made");
+    } catch (e) {
+      this.#say(`The document was not made: ${(e as Error).message}`, "error");
+      const form = this.renderRoot.querySelector<HTMLElement & { problem: string | undefined }>("cb-template-form");
+      if (form) form.problem = (e as Error).message;
+    }
   }
 
   #revealError(cellId: string): void {
@@ -728,6 +1041,7 @@ export class CbWorkbench extends LitElement {
     if (reply.status === "saved") {
       this.baseSha = reply.sha256;
       if (out.doc !== store.doc) this.#adoptRecorded(out.doc);
+      if (out.recordedCells !== undefined) this.controlOverrides = {};
       store.markSaved();
       this.opened = store.doc;
       dropRecovery(localStorage, this.path);
@@ -838,6 +1152,8 @@ export class CbWorkbench extends LitElement {
       <span class="grow"></span>
       <button @click=${() => void this.run("all")} ?disabled=${!store || running} title="Run all (Ctrl+Shift+Enter)">${icons.runAll}<span>Run all</span></button>
       <button @click=${() => this.stop()} ?disabled=${!running} title="Stop (Ctrl+.)">${icons.stop}<span>Stop</span></button>
+      <button @click=${() => void this.openMatch()} ?disabled=${!store} title="Match a model curve by hand and mark data windows (Alt+Shift+M)"><span>Match by hand</span></button>
+      <button @click=${() => void this.review()} ?disabled=${!store || this.reviewing} title="Rerun in a fresh kernel and compare every cell with the record, as conebook verify does (Alt+Shift+V)"><span>${this.reviewing ? "Reviewing…" : "Review"}</span></button>
       <button @click=${() => this.store?.undo()} ?disabled=${!store?.canUndo} aria-label="Undo" title="Undo (Ctrl+Z)">${icons.undo}</button>
       <button @click=${() => this.store?.redo()} ?disabled=${!store?.canRedo} aria-label="Redo" title="Redo (Ctrl+Shift+Z)">${icons.redo}</button>
       <button class="primary" @click=${() => (this.raw ? void this.#saveRaw() : void this.save())} ?disabled=${!store && !this.raw} title="Save (Ctrl+S)">${icons.save}<span>Save</span></button>
@@ -927,6 +1243,71 @@ export class CbWorkbench extends LitElement {
       </div>`;
   }
 
+  #matchPanel() {
+    const doc = this.store!.doc;
+    return html`<cb-match .records=${this.matchRecords} .recordsProblem=${this.matchProblem} .windows=${readWindows(doc)} aria-labelledby="match-title" role="region"></cb-match>`;
+  }
+
+  #templateBanner() {
+    const doc = this.store!.doc;
+    if (!isTemplate(doc)) return nothing;
+    return html`<div class="banner template" role="note">
+        <strong>This document is a template.</strong> It declares ${doc.header.parameters.length} parameters and ${doc.header.dataSlots?.length ?? 0} data slots; its values and rows are a demonstration's.
+        <div class="actions"><button class="primary" @click=${() => (this.templateOpen = true)}>Make a document from it</button></div>
+      </div>
+      ${this.templateOpen
+        ? html`<dialog class="template-form" aria-labelledby="template-form-title" @cancel=${() => (this.templateOpen = false)}>
+            <cb-template-form .template=${doc} templatePath=${this.path}></cb-template-form>
+          </dialog>`
+        : nothing}`;
+  }
+
+  #reviewBanner() {
+    const r = this.reviewShown;
+    if (!r) return nothing;
+    const store = this.store!;
+    const latest = this.runs[this.runs.length - 1];
+    const moved = latest && latest.phase === "done" && latest.startedAt > r.at - r.ms ? whatMoves(headlineNumbers(r.doc, recordedOutputs(r.doc)), headlineNumbers(store.doc, latest.outputs)) : undefined;
+    const differing = [...r.cells.entries()].filter(([, c]) => c.status !== "reproduced");
+    const changed = Object.entries(this.controlOverrides);
+    return html`<section class="banner review ${r.tone === "ok" ? "ok" : "error"}" aria-labelledby="review-title">
+      <div class="actions" style="margin-top:0;align-items:center">
+        <h2 id="review-title" style="font-size:1rem;margin:0">Review</h2>
+        <span class="review-summary" role="status">${r.summary}; rerun in ${formatMs(r.ms)} in a fresh kernel</span>
+        <span class="grow"></span>
+        <button @click=${() => void this.review()} ?disabled=${this.reviewing}>Review again</button>
+        <button @click=${() => (this.reviewShown = undefined)}>Close the review</button>
+      </div>
+      ${r.pins.length ? html`<ul>${r.pins.map((p) => html`<li>data ${p.name} (${p.path}): ${p.status === "changed" ? `changed since it was pinned: SHA-256 now ${p.actual}` : p.status === "unreadable" ? p.reason : ""}</li>`)}</ul>` : nothing}
+      ${differing.length
+        ? html`<p>Cells that did not reproduce: ${differing.map(([id, c], i) => html`${i ? ", " : ""}<button class="link" @click=${() => this.#goTo(id)}>${id}</button> (${c.status === "differs" ? `${c.differences.length} difference${c.differences.length === 1 ? "" : "s"}` : c.status})`)}</p>`
+        : nothing}
+      ${r.references.length ? html`<ul>${r.references.map((p) => html`<li>narrative ${p.cellId}, line ${p.line}: reference ${p.text}: ${p.message}</li>`)}</ul>` : nothing}
+      <h3 style="font-size:0.9rem;margin:0.5rem 0 0.2rem">What moves</h3>
+      ${moved
+        ? moved.moved.length
+          ? html`<p class="hint">${moved.moved.length} headline numbers changed from the record to the latest run${changed.length ? ` (controls changed here: ${changed.map(([k, v]) => `${k} = ${formatNumber(v)}`).join(", ")})` : ""}; ${moved.unchanged} stayed. Nothing is saved until you save.</p>
+              <div class="moves" tabindex="0" role="region" aria-label="Headline numbers before and after">
+                <table>
+                  <thead><tr><th scope="col">cell</th><th scope="col">result</th><th scope="col">recorded</th><th scope="col">now</th><th scope="col">change</th></tr></thead>
+                  <tbody>
+                    ${moved.moved.slice(0, 30).map(
+                      (m) => html`<tr>
+                        <td>${m.cellId}</td>
+                        <td>${m.label}${m.unit ? ` (${m.unit})` : ""}</td>
+                        <td>${m.before === undefined ? "none" : formatNumber(m.before)}</td>
+                        <td>${m.after === undefined ? "none" : formatNumber(m.after)}</td>
+                        <td>${m.change === undefined ? "" : `${m.change >= 0 ? "+" : "−"}${Number(Math.abs(m.change * 100).toPrecision(3))} %`}</td>
+                      </tr>`,
+                    )}
+                  </tbody>
+                </table>
+              </div>`
+          : html`<p class="hint">The latest run gives every headline number as recorded (${moved.unchanged} of them).</p>`
+        : html`<p class="hint">Change a control (in its cell's outputs) or a data window, run, and the headline numbers that move are listed here against the record, without saving.</p>`}
+    </section>`;
+  }
+
   #shownCache = new Map<string, ShownResult>();
 
   /** The same ShownResult object while nothing about it changed, so cells that did not change do not re-render. */
@@ -957,6 +1338,7 @@ export class CbWorkbench extends LitElement {
     const problems = new Map<string, Diagnostic[]>();
     for (const d of this.diagnostics) if (d.cellId !== undefined) problems.set(d.cellId, [...(problems.get(d.cellId) ?? []), d]);
     const opened = new Set((this.opened ?? doc).cells);
+    const noteName = rememberedName(doc.header.testInformation?.reviewer ?? "");
     return html`${repeat(
         doc.cells,
         (c) => c.id,
@@ -974,6 +1356,9 @@ export class CbWorkbench extends LitElement {
           .count=${doc.cells.length}
           ?editing=${this.editingNarrative.has(c.id)}
           ?selected=${this.selectedId === c.id}
+          .review=${this.reviewShown?.cells.get(c.id)}
+          .controlValues=${this.controlOverrides}
+          noteName=${noteName}
         ></cb-cell>`,
       )}
       <div class="add-end">
@@ -1013,6 +1398,7 @@ export class CbWorkbench extends LitElement {
                 </div>
               </div>`
             : nothing}
+          ${this.store && !this.raw ? html`${this.#templateBanner()} ${this.#reviewBanner()} ${this.matchOpen ? this.#matchPanel() : nothing}` : nothing}
           ${this.raw ? this.#rawView() : this.store ? this.#cells() : !this.loading ? html`<p>Choose a document on the left.</p>` : nothing}
         </main>
       </div>
