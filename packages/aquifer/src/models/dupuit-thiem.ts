@@ -43,7 +43,7 @@ export function dupuitThiemModel(H: number): DupuitThiemModel {
   checkScalar("dupuitThiemModel", "saturated thickness H", H, "m", true);
   const model: DupuitThiemModel = {
     id: "dupuit-thiem",
-    name: "Dupuit-Thiem steady unconfined flow",
+    name: "Dupuit (1863) and Thiem (1906) steady unconfined flow",
     source:
       "Dupuit, J. (1863). Etudes theoriques et pratiques sur le mouvement des eaux dans les canaux decouverts et " +
       "a travers les terrains permeables. Dunod, Paris. Thiem, G. (1906). Hydrologische Methoden. Gebhardt, Leipzig.",

@@ -84,6 +84,7 @@ export const papadopulosAnisotropyModel: DrawdownModel = {
     "theta and theta + pi are the same direction; Tmax and Tmin swap when theta turns by pi/2.",
   ],
   parameters: [tMax, tMin, theta, storativityParameter],
+  directional: true,
   drawdown(p: ArrayLike<number>, g: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {
     checkParameters(papadopulosAnisotropyModel, p);
     const { x, y } = position(papadopulosAnisotropyModel.name, g);

@@ -69,7 +69,7 @@ export function kgsSlugModel(geometry: KgsGeometry): KgsModel {
   const L = vertical.zetaB - vertical.zetaA;
   const model: KgsModel = {
     id: "kgs-slug",
-    name: "KGS slug test (Hyder et al. 1994), partially penetrating well with skin",
+    name: "KGS slug test of Hyder et al. (1994), partially penetrating well with skin",
     source:
       "Hyder, Z., Butler, J.J. Jr., McElwee, C.D. and Liu, W. (1994). Slug tests in partially penetrating wells. " +
       "Water Resources Research 30(11), 2945-2957. Thin skin as in Agarwal, Al-Hussainy and Ramey (1970).",
@@ -91,6 +91,7 @@ export function kgsSlugModel(geometry: KgsGeometry): KgsModel {
       "Kr, Kz/Kr and the skin cannot all be determined from one test; fix the anisotropy from other evidence.",
     ],
     parameters,
+    notSuperposable: "its output is the normalized head H/H0 of a slug test, not a drawdown driven by a pumping rate.",
     geometry,
     drawdown(p: ArrayLike<number>, _g: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {
       checkParameters(model, p);

@@ -84,7 +84,7 @@ export function underdampedSlugModel(geometry: UnderdampedGeometry): DrawdownMod
   }
   const model: DrawdownModel & { geometry: UnderdampedGeometry } = {
     id: "underdamped-slug",
-    name: "Underdamped slug test (van der Kamp 1976; Springer-Gelhar 1991; Butler 1998)",
+    name: "Underdamped slug test of van der Kamp (1976), in the form of Springer-Gelhar (1991) and Butler (1998)",
     source:
       "van der Kamp, G. (1976). Determining aquifer transmissivity by means of well response tests: the " +
       "underdamped case. Water Resources Research 12(1), 71-77. Springer, R.K. and Gelhar, L.W. (1991). " +
@@ -107,6 +107,7 @@ export function underdampedSlugModel(geometry: UnderdampedGeometry): DrawdownMod
       "Repeat tests with different H0 should agree; if the normalized records differ, non-linear losses act.",
     ],
     parameters: [conductivityParameter, columnLengthParameter],
+    notSuperposable: "its output is the normalized head H/H0 of a slug test, not a drawdown driven by a pumping rate.",
     geometry,
     drawdown(p: ArrayLike<number>, _g: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {
       checkParameters(model, p);

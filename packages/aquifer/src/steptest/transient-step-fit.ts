@@ -44,6 +44,14 @@ function rateAt(steps: readonly PumpingStep[], t: number): number {
   return q;
 }
 
+/** The pumped-well model of a step test, with its aquifer model and schedule. */
+export interface StepDrawdownModel extends DrawdownModel {
+  /** The aquifer model (linear in Q) under the well loss. */
+  readonly aquifer: DrawdownModel;
+  /** The schedule: start (d) and rate (m3/d) of each step. */
+  readonly steps: readonly PumpingStep[];
+}
+
 /**
  * The pumped-well model of a stepped schedule: `aquifer` (a DrawdownModel linear in Q, evaluated at the
  * geometry's r, which should be the well radius) driven by `steps` (start d, rate m3/d) plus C Q(t)^n.
@@ -51,10 +59,10 @@ function rateAt(steps: readonly PumpingStep[], t: number): number {
  * Source: as in the module comment.
  * @throws SuperpositionInputError for a bad schedule.
  */
-export function stepDrawdownModel(aquifer: DrawdownModel, steps: readonly PumpingStep[]): DrawdownModel {
+export function stepDrawdownModel(aquifer: DrawdownModel, steps: readonly PumpingStep[]): StepDrawdownModel {
   const scheduled = withRateSchedule(aquifer, steps);
   const k = aquifer.parameters.length;
-  const model: DrawdownModel = {
+  const model: StepDrawdownModel = {
     id: `${aquifer.id}+well-loss`,
     name: `${aquifer.name}, stepped rates with well loss C Q^n`,
     source:
@@ -77,6 +85,11 @@ export function stepDrawdownModel(aquifer: DrawdownModel, steps: readonly Pumpin
         "reliable aquifer storativity.",
     ],
     parameters: [...aquifer.parameters, wellLossParameter, wellLossExponentParameter],
+    aquifer,
+    steps: steps.map((step) => ({ start: step.start, rate: step.rate })),
+    notSuperposable:
+      "its well loss C Q^n is not proportional to the rate, and its own rate schedule is already built in; " +
+      "superpose the aquifer model and add C Q^n for the rate of the pumped well.",
     drawdown(p: ArrayLike<number>, geometry: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {
       const result = scheduled.drawdown(Array.prototype.slice.call(p, 0, k) as number[], geometry, t, out);
       const C = p[k]!;
