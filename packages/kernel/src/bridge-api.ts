@@ -194,11 +194,11 @@ const modelIdArg: Validator<DrawdownModel> = {
 };
 
 /** A model spec as a fit result carries it: an id, or { id, ...options } with the options as numbers (base units). */
-const modelSpecData: Validator<ModelSpec> = oneOf(stringArg(), refine(mapOf(oneOf(stringArg(), finite)), "{ id, ...options }", (o, at) => {
+const modelSpecData: Validator<ModelSpec> = oneOf(stringArg(), refine(mapOf(oneOf(stringArg(), finite, booleanArg, arrayOf(recordArg({ start: finite, rate: finite })))), "{ id, ...options }", (o, at) => {
   if (typeof o.id !== "string") throw new ArgumentError(`${at} must have an id (a model id)`);
   return o as ModelSpec;
 }));
-const geometryArg = recordArg({ r: positive, Q: finite });
+const geometryArg = recordArg({ r: positive, Q: finite, x: optional(finite), y: optional(finite) });
 /** Times or drawdowns as the aquifer functions take them; they report non-finite entries with the point index. */
 const samples = numbersArg({ allowNonFinite: true }, 0);
 

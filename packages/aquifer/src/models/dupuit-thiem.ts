@@ -66,6 +66,9 @@ export function dupuitThiemModel(H: number): DupuitThiemModel {
       "Drawdown in the pumped well itself is larger than the Dupuit value (seepage face, well losses).",
     ],
     parameters: [hydraulicConductivityParameter, radiusOfInfluenceParameter],
+    notSuperposable:
+      "its drawdown is not proportional to the pumping rate (the Dupuit form is linear in h^2, not in s); superpose " +
+      "H^2 - h^2 by hand, or use thiem for drawdowns small against H.",
     saturatedThickness: H,
 
     drawdown(p: ArrayLike<number>, geometry: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {
