@@ -10,7 +10,7 @@
 import { writeFileSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { getModel, type ModelSpec } from "@conebook/aquifer";
+import { bouwerRiceLnReRw, getModel, type ModelSpec } from "@conebook/aquifer";
 
 const HERE = dirname(fileURLToPath(import.meta.url));
 
@@ -86,7 +86,8 @@ const S_PER_D = 86400;
     const noise = normal(seed);
     write(`greywether-gw3-test${k}.csv`, ["elapsed_s", "displacement_m"], seconds.map((x, i) => [x.toFixed(1), (H0 * h[i]! + 0.002 * noise()).toFixed(4)]));
   }
-  const gravel = { id: "underdamped-slug", casingRadius: 0.025, screenLength: 2, lnReRw: 2.9 };
+  // Screen radius 0.05 m, screen length 2 m, its bottom 6 m below the water table in 20 m of gravel.
+  const gravel = { id: "underdamped-slug", casingRadius: 0.025, screenLength: 2, lnReRw: bouwerRiceLnReRw(0.05, 2, 6, 20).lnReRw };
   const quarter = Array.from({ length: 160 }, (_, i) => 0.25 * (i + 1));
   const h = modelAt(gravel, { K: 250, Le: 9 }, { r: 1, Q: 1 }, quarter.map((x) => x / S_PER_D));
   const noise = normal(303);

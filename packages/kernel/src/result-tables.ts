@@ -118,7 +118,7 @@ function fittedSlugOutputs(result: Record<string, unknown>, options: unknown): C
   let title: string;
   if (typeof result.Kr === "number") {
     title = "Slug test: KGS model (Hyder et al. 1994)";
-    rows.push(estimateRow("Kr = T / b (horizontal hydraulic conductivity)", result.Kr, null, result.KrCi95, "m/d"));
+    rows.push(estimateRow("Kr (horizontal hydraulic conductivity, T / b)", result.Kr, null, result.KrCi95, "m/d"));
   } else {
     title = "Slug test: underdamped (van der Kamp 1976)";
     rows.push(["C_D (damping; below 2 the head oscillates)", num(result.CD), null, null, null, "1"]);
