@@ -603,7 +603,8 @@ function describeParsedUnit(text: string): unknown {
 
 const scheduleStepsArg = arrayOf(recordArg({ start: finite, rate: finite }), 2);
 const fittedOrNumber = oneOf(nonNegative, stringArg(["fitted"]));
-const startFixedArg = optional(recordArg({ start: optional(mapOf(finite)), fixed: optional(mapOf(finite)) }));
+const fitTolerancesArg = optional(recordArg({ ftol: optional(positive), xtol: optional(positive), gtol: optional(positive), maxEvaluations: optional(numberArg({ min: 1, max: 100000, integer: true })) }));
+const startFixedArg = optional(recordArg({ start: optional(mapOf(finite)), fixed: optional(mapOf(finite)), fit: fitTolerancesArg }));
 const kgsGeometryArg = recordArg({
   thickness: positive,
   screenTop: nonNegative,
@@ -901,7 +902,7 @@ export const AQUIFER_API: Readonly<Record<string, BridgeEntry>> = {
   ),
   "aq.fitStepDrawdown": fn(
     "Transient step test: aquifer model (id or spec) by superposition plus well loss C Q^n fitted to the whole pumped-well record { aquifer, steps, wellRadius (m), t (d), s (m), start?, fixed? }",
-    [arg("input", recordArg({ aquifer: modelIdArg, steps: scheduleStepsArg, wellRadius: positive, t: samples, s: samples, start: optional(mapOf(finite)), fixed: optional(mapOf(finite)) }))],
+    [arg("input", recordArg({ aquifer: modelIdArg, steps: scheduleStepsArg, wellRadius: positive, t: samples, s: samples, start: optional(mapOf(finite)), fixed: optional(mapOf(finite)), fit: fitTolerancesArg }))],
     (input) => fitStepDrawdown(input),
   ),
   "aq.transmissivityFromSpecificCapacity": fn(

@@ -38,6 +38,7 @@ import { pressureAsWaterColumn } from "./barometric.js";
 import { fallSign, type WaterLevelKind } from "./level-kind.js";
 import { regress } from "./multiple-regression.js";
 import { CorrectionError, formatNumber, requireFinite, requireSameLength, type CorrectionRecord } from "./record.js";
+import { portableCos, portableSin } from "../numerics/portable-math.js";
 
 /** A tidal constituent: name, frequency in cycles per day, and whether it is also an atmospheric (barometric) tide. */
 export interface TidalConstituent {
@@ -176,8 +177,8 @@ export function barometricResponse(options: BarometricResponseOptions): Barometr
   const days = convertArray(options.times, options.timeUnit, "d");
   for (const c of tides) {
     const omega = 2 * Math.PI * c.cyclesPerDay;
-    columns.push(Float64Array.from({ length: rows }, (_, j) => Math.cos(omega * days[first + j]!)));
-    columns.push(Float64Array.from({ length: rows }, (_, j) => Math.sin(omega * days[first + j]!)));
+    columns.push(Float64Array.from({ length: rows }, (_, j) => portableCos(omega * days[first + j]!)));
+    columns.push(Float64Array.from({ length: rows }, (_, j) => portableSin(omega * days[first + j]!)));
   }
   const fit = regress(columns, y, true, `${where} (lagged regression of ${rows} level changes)`);
   const p = fit.p;
@@ -332,8 +333,8 @@ export function earthTideCheck(options: EarthTideCheckOptions): EarthTideCheckRe
   const columns: Float64Array[] = [new Float64Array(n).fill(1), Float64Array.from(t, (v) => v - mid)];
   for (const c of kept) {
     const omega = 2 * Math.PI * c.cyclesPerDay;
-    columns.push(Float64Array.from(t, (v) => Math.cos(omega * v)));
-    columns.push(Float64Array.from(t, (v) => Math.sin(omega * v)));
+    columns.push(Float64Array.from(t, (v) => portableCos(omega * v)));
+    columns.push(Float64Array.from(t, (v) => portableSin(omega * v)));
   }
   const fit = regress(columns, options.values, true, `${where} (harmonic regression)`);
   const p = fit.p;

@@ -19,6 +19,7 @@ import { ModelInputError } from "./errors.js";
 import type { DrawdownModel, ObservationGeometry, ParameterDescriptor } from "./model.js";
 import { storativityParameter, transmissivityParameter } from "./parameters.js";
 import { penetrationLeakyW, penetrationLeakyWdBeta, penetrationLeakyWdU } from "./penetration-leaky-function.js";
+import { portableCos, portableSin } from "../numerics/portable-math.js";
 
 const FOUR_PI = 4 * Math.PI;
 /** Default bound on the truncation error of the series, relative to W(u). */
@@ -113,7 +114,7 @@ export function coefficients(g: PartialPenetrationGeometry): Coefficients {
   if ("depth" in o) {
     const scale = (2 * b) / (Math.PI * (l - d));
     return {
-      at: (n) => (scale / n) * (Math.sin(n * k * l) - Math.sin(n * k * d)) * Math.cos(n * k * o.depth),
+      at: (n) => (scale / n) * (portableSin(n * k * l) - portableSin(n * k * d)) * portableCos(n * k * o.depth),
       envelope: 2 * scale,
       power: 1,
       zero,
@@ -123,7 +124,7 @@ export function coefficients(g: PartialPenetrationGeometry): Coefficients {
   const z2 = o.screenBottom;
   const scale = (2 * b * b) / (Math.PI * Math.PI * (l - d) * (z2 - z1));
   return {
-    at: (n) => (scale / (n * n)) * (Math.sin(n * k * l) - Math.sin(n * k * d)) * (Math.sin(n * k * z2) - Math.sin(n * k * z1)),
+    at: (n) => (scale / (n * n)) * (portableSin(n * k * l) - portableSin(n * k * d)) * (portableSin(n * k * z2) - portableSin(n * k * z1)),
     envelope: 4 * scale,
     power: 2,
     zero: zero || (z1 === 0 && z2 === b),

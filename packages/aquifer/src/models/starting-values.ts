@@ -9,6 +9,7 @@ import { checkGeometry } from "./checks.js";
 import { ModelInputError } from "./errors.js";
 import type { DrawdownModel, ObservationGeometry } from "./model.js";
 import { getModel, type ModelSpec } from "./registry.js";
+import { portableExp10 } from "../numerics/portable-math.js";
 
 /** Kz/Kr to start from when it is fitted (common practice, no source: a vertical conductivity a tenth of the horizontal). */
 const START_ANISOTROPY = 0.1;
@@ -72,10 +73,10 @@ function searchGrid(
   const nc = Math.round((lcHi - lcLo) / step);
   for (let kb = 0; kb <= nb; kb++) {
     const lb = lbLo + kb * step;
-    const rB = Math.pow(10, lb);
+    const rB = portableExp10(lb);
     for (let kc = 0; kc <= nc; kc++) {
       const lc = lcLo + kc * step;
-      const c = Math.pow(10, lc);
+      const c = portableExp10(lc);
       let sw = 0;
       let ww = 0;
       for (let i = 0; i < tt.length; i++) {
@@ -142,8 +143,8 @@ function hantushTypeCurveSearch(
     FINE_STEP, coarse,
   );
   const T = geometry.Q / (4 * Math.PI * best.A);
-  const c = Math.pow(10, best.lc);
-  const rB = Math.pow(10, best.lb);
+  const c = portableExp10(best.lc);
+  const rB = portableExp10(best.lb);
   return { T, S: (4 * T * c) / (geometry.r * geometry.r), B: geometry.r / rB, rB, points: tt.length };
 }
 
@@ -192,8 +193,8 @@ function gridSearchTS(m: DrawdownModel, geometry: ObservationGeometry, t: ArrayL
   let bestS = values[1]!;
   for (let lt = -2; lt <= 5; lt += 0.25) {
     for (let ls = -7; ls <= -0.5; ls += 0.5) {
-      p[0] = Math.pow(10, lt);
-      p[1] = Math.pow(10, ls);
+      p[0] = portableExp10(lt);
+      p[1] = portableExp10(ls);
       const model = m.drawdown(p, geometry, tt);
       let ssr = 0;
       for (let i = 0; i < tt.length; i++) ssr += (model[i]! - ss[i]!) ** 2;
@@ -338,7 +339,7 @@ function constantDrawdownStart(m: DrawdownModel, geometry: ObservationGeometry, 
     // sw/Q = 2.303/(4 pi T) log10(2.25 T t/(S rw^2)) (Jacob and Lohman 1952), on the later half of the record.
     const fitted = line(x, y);
     const T = 2.302585092994046 / (4 * Math.PI * fitted.b);
-    const S = (2.25 * T) / (well.rw * well.rw * Math.pow(10, fitted.a / fitted.b));
+    const S = (2.25 * T) / (well.rw * well.rw * portableExp10(fitted.a / fitted.b));
     values[0] = clamp(m, 0, T, notes);
     values[1] = clamp(m, 1, S, notes);
     notes.push(`T and S from the straight line sw/Q against log10 t through the later ${x.length} readings (Jacob and Lohman 1952).`);

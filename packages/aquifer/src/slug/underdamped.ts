@@ -15,10 +15,11 @@
  * (1991), USGS Water-Resources Investigations Report 91-4034, 36-40; Butler, J.J. Jr. (1998), The Design,
  * Performance, and Analysis of Slug Tests, Lewis Publishers.
  */
-import { fitModel, type FitResult } from "../fit/index.js";
+import { fitModel, type FitOptions, type FitResult } from "../fit/index.js";
 import { checkParameters, outputArray } from "../models/checks.js";
 import type { DrawdownModel, ObservationGeometry, ParameterDescriptor } from "../models/model.js";
 import { SlugTestInputError } from "./errors.js";
+import { portableCos, portableSin } from "../numerics/portable-math.js";
 
 /** Gravitational acceleration in m/d^2 (9.80665 m/s^2, the standard value). */
 export const GRAVITY_M_PER_D2 = 9.80665 * 86400 * 86400;
@@ -35,7 +36,7 @@ export function underdampedNormalizedHead(CD: number, tD: number): number {
   if (Math.abs(d) < 1e-8) return (1 + tD) * Math.exp(-tD);
   if (d > 0) {
     const w = Math.sqrt(d);
-    return Math.exp((-CD * tD) / 2) * (Math.cos(w * tD) + (CD / (2 * w)) * Math.sin(w * tD));
+    return Math.exp((-CD * tD) / 2) * (portableCos(w * tD) + (CD / (2 * w)) * portableSin(w * tD));
   }
   const root = Math.sqrt(-d);
   const r1 = -CD / 2 + root;
@@ -129,13 +130,14 @@ export function underdampedSlugModel(geometry: UnderdampedGeometry): DrawdownMod
 /**
  * Fits K (m/d) and Le (m) of the underdamped model to a normalized record (t in d since the slug, h = H/H0)
  * by fitModel (Levenberg-Marquardt in ln K and ln Le, 95 % intervals). `start.Le` defaults to the given
- * column estimate or 5 m; `start.K` to 50 m/d. Source: module comment.
+ * column estimate or 5 m; `start.K` to 50 m/d; `fit` passes ftol, xtol, gtol and maxEvaluations to fitModel.
+ * Source: module comment.
  */
 export function fitUnderdampedSlugTest(
   geometry: UnderdampedGeometry,
   t: ArrayLike<number>,
   h: ArrayLike<number>,
-  options: { start?: { K?: number; Le?: number }; fixed?: Record<string, number> } = {},
+  options: { start?: { K?: number; Le?: number }; fixed?: Record<string, number>; fit?: Pick<FitOptions, "ftol" | "xtol" | "gtol" | "maxEvaluations"> } = {},
 ): { fit: FitResult; CD: number } {
   const model = underdampedSlugModel(geometry);
   const fit = fitModel({
@@ -143,6 +145,7 @@ export function fitUnderdampedSlugTest(
     wells: [{ name: "slug", geometry: { r: 1, Q: 1 }, t, s: h }],
     start: { K: options.start?.K ?? 50, Le: options.start?.Le ?? 5 },
     ...(options.fixed ? { fixed: options.fixed } : {}),
+    ...(options.fit ?? {}),
   });
   const K = fit.parameters[0]!.estimate;
   const Le = fit.parameters[1]!.estimate;
