@@ -59,7 +59,8 @@ function cases(): Case[] {
       t,
       peer: { kind: "boulton", T: 200, S: 1e-3, Sy: 0.1, alpha: 5, r: 15, Q: 500, t, repeats: 5 },
       peerName: "numpy + scipy.special.k0, Stehfest N = 16",
-      tolerance: 1e-8,
+      // The 16 alternating weights (up to 1e9) amplify the rounding of the weights and of K0 to about 1e-7.
+      tolerance: 1e-6,
       fitStart: { T: 100, S: 3e-3, Sy: 0.2, alpha: 1 },
       noise: 0.003,
     },
@@ -71,7 +72,7 @@ function cases(): Case[] {
       t,
       peer: { kind: "jacob-lohman", T: 80, S: 2e-4, rw: 0.1, sw: 12, t, repeats: 5 },
       peerName: "numpy + scipy.special k0e, k1e, Stehfest N = 14",
-      tolerance: 1e-8,
+      tolerance: 1e-7,
       fitStart: { T: 30, S: 1e-3 },
       noise: 2,
     },
@@ -131,7 +132,7 @@ export function classicModelBenchmarks(): Measurement[] {
   const peer = runPeer(input);
   const out: Measurement[] = [];
   list.forEach((c, i) => {
-    let values = new Float64Array(0);
+    let values: Float64Array = new Float64Array(0);
     const ms = bestOf(5, () => c.model.drawdown(c.parameters, c.geometry, c.t), (v) => {
       values = v;
       if (!v.every(Number.isFinite)) throw new Error(`${c.label}: values are not all finite`);
