@@ -6,6 +6,7 @@
  */
 import { machineLine, printTable, printTargetSummary } from "./harness.js";
 import { PeerProcess, preparePython } from "./python-peer.js";
+import { classicModelBenchmarks } from "./sections/classic-models.js";
 import { cliBenchmarks } from "./sections/cli.js";
 import { coverageSection } from "./sections/coverage.js";
 import { kernelBenchmarks } from "./sections/kernel.js";
@@ -31,6 +32,7 @@ try {
 }
 if (wanted("laplace")) printTable("Laplace-domain models (aquifer)", laplaceModelBenchmarks());
 if (wanted("methods")) printTable("Screened wells, slug and step tests (aquifer)", newMethodBenchmarks());
+if (wanted("methods")) printTable("Boulton, Jacob-Lohman, Hantush 1964, underdamped slug, barometric response (aquifer)", classicModelBenchmarks());
 if (wanted("kernel")) printTable("Sandbox, bridge and documents (kernel)", await kernelBenchmarks());
 if (wanted("cli")) printTable("Command line (cli): cold start and logger documents", await cliBenchmarks());
 if (wanted("coverage")) coverageSection();

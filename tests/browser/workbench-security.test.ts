@@ -227,7 +227,15 @@ describe("the server, as a browser reaches it", () => {
 });
 
 const NOTEBOOKS = fileURLToPath(new URL("../../notebooks/", import.meta.url));
-const EVERY_NOTEBOOK = ["kestrel-moor-constant-rate.cone.md", "templates/constant-rate-test.cone.md"];
+const EVERY_NOTEBOOK = [
+  "greywether-levels-slug-tests.cone.md",
+  "kestrel-moor-constant-rate.cone.md",
+  "ketterby-heath-partial-penetration.cone.md",
+  "pennock-mill-step-test.cone.md",
+  "scarrow-flats-water-table.cone.md",
+  "templates/constant-rate-test.cone.md",
+  "tollin-brook-dupuit-thiem.cone.md",
+];
 
 describe("every notebook in the page", () => {
   it("lists every notebook of the repository in this test", async () => {

@@ -17,12 +17,15 @@ import {
   type DrawdownModel,
 } from "../src/models/index.js";
 
-const UNITS = new Set(["m2/d", "1", "m", "1/d"]);
+const UNITS = new Set(["m2/d", "1", "m", "1/d", "m/d", "d^n/m^(3n-1)"]);
 
 describe("model registry and descriptors", () => {
   it("registers every drawdown model of the library by id, the geometry-bound ones among them", () => {
     expect([...modelIds].sort()).toEqual([
-      "cooper-jacob", "hantush-aquitard-storage", "hantush-jacob", "hantush-partial-penetration", "neuman", "papadopulos-cooper", "theis", "thiem",
+      "boulton", "cooper-jacob", "dougherty-babu", "dupuit-thiem", "gringarten-fracture", "hantush-aquitard-storage", "hantush-jacob",
+      "hantush-leaky-partial-penetration", "hantush-partial-penetration", "jacob-lohman", "kgs-slug", "moench-double-porosity",
+      "moench-water-table", "neuman", "neuman-partial-penetration", "papadopulos-anisotropy", "papadopulos-cooper",
+      "papadopulos-cooper+well-loss", "theis", "theis+well-loss", "thiem", "underdamped-slug",
     ]);
     expect(getModel("theis")).toBe(theisModel);
     expect(getModel("cooper-jacob")).toBe(cooperJacobModel);
@@ -34,7 +37,10 @@ describe("model registry and descriptors", () => {
   it("names the known ids when asked for an unknown one", () => {
     expect(() => getModel("theiss")).toThrow(UnknownModelError);
     expect(() => getModel("theiss")).toThrow(
-      'Unknown model "theiss". Known models: theis, cooper-jacob, hantush-jacob, hantush-aquitard-storage, thiem, neuman, papadopulos-cooper, hantush-partial-penetration.',
+      'Unknown model "theiss". Known models: theis, cooper-jacob, hantush-jacob, hantush-aquitard-storage, thiem, boulton, papadopulos-anisotropy, ' +
+        "neuman, papadopulos-cooper, hantush-partial-penetration, hantush-leaky-partial-penetration, dougherty-babu, moench-water-table, " +
+        "neuman-partial-penetration, moench-double-porosity, dupuit-thiem, gringarten-fracture, jacob-lohman, kgs-slug, underdamped-slug, " +
+        "theis+well-loss, papadopulos-cooper+well-loss.",
     );
     expect(() => getModel("toString")).toThrow(UnknownModelError);
   });
@@ -66,12 +72,33 @@ describe("model registry and descriptors", () => {
     expect(() => getModel({ id: "hantush-partial-penetration", aquiferThickness: 20, screenTop: 0, screenBottom: 8 })).toThrow(/say where the drawdown is observed/);
   });
 
-  it("says that leaky partial penetration is not available and names the nearest models", () => {
-    const nearest = /not available.*Nearest available models: "hantush-partial-penetration" .*"hantush-jacob"/s;
-    expect(() => getModel("hantush-leaky-partial-penetration")).toThrow(UnknownModelError);
-    expect(() => getModel("hantush-leaky-partial-penetration")).toThrow(nearest);
-    expect(() => getModel({ id: "hantush-jacob", aquiferThickness: 20, screenTop: 0, screenBottom: 5, piezometerDepth: 3 })).toThrow(nearest);
-    expect(() => getModel({ id: "hantush-partial-penetration", aquiferThickness: 20, screenTop: 0, screenBottom: 5, piezometerDepth: 3, B: 400 })).toThrow(nearest);
+  it("points a request for leaky partial penetration to the Hantush (1964) model", () => {
+    const pointer = /use "hantush-leaky-partial-penetration" \(Hantush 1964\)/;
+    expect(() => getModel("leaky-partial-penetration")).toThrow(UnknownModelError);
+    expect(() => getModel("leaky-partial-penetration")).toThrow(pointer);
+    expect(() => getModel({ id: "hantush-jacob", aquiferThickness: 20, screenTop: 0, screenBottom: 5, piezometerDepth: 3 })).toThrow(pointer);
+    expect(() => getModel({ id: "hantush-partial-penetration", aquiferThickness: 20, screenTop: 0, screenBottom: 5, piezometerDepth: 3, B: 400 })).toThrow(pointer);
+    const leaky = getModel({ id: "hantush-leaky-partial-penetration", aquiferThickness: 20, screenTop: 0, screenBottom: 5, piezometerDepth: 3 });
+    expect(leaky.parameters.map((p) => p.name)).toEqual(["T", "S", "B", "KzKr"]);
+  });
+
+  it("checks choices, flags, fitted options and rate schedules, and keeps them in the spec", () => {
+    const moench = { id: "moench-water-table", saturatedThickness: 20, screenTop: 5, screenBottom: 15, wellRadius: 0.1, casingRadius: 0.1 };
+    expect(getModel(moench).parameters.map((p) => p.name)).toEqual(["T", "S", "Sy", "KzKr", "alpha"]);
+    expect(getModel({ ...moench, drainage: "instantaneous", skin: "fitted", anisotropy: 0.2 }).parameters.map((p) => p.name)).toEqual(["T", "S", "Sy", "Sk"]);
+    expect(() => getModel({ ...moench, drainage: "slow" })).toThrow('model "moench-water-table": option drainage is "slow"; use "gradual" or "instantaneous".');
+    expect(() => getModel({ ...moench, skin: "big" })).toThrow('option skin must be a number or "fitted", got "big"');
+    const db = { id: "dougherty-babu", aquiferThickness: 20, screenTop: 0, screenBottom: 8, wellRadius: 0.1, casingRadius: 0.1, anisotropy: 0.3 };
+    expect(getModel({ ...db, leaky: true }).parameters.map((p) => p.name)).toEqual(["T", "S", "B"]);
+    expect(() => getModel({ ...db, leaky: "yes" })).toThrow('option leaky is "yes"; give true or false.');
+    expect(() => getModel({ ...db, observationScreenTop: 10 })).toThrow(/give both observationScreenTop and observationScreenBottom/);
+    const step = getModel({ id: "theis+well-loss", steps: [{ start: 0, rate: 400 }, { start: 0.1, rate: 800 }] });
+    expect(step.parameters.map((p) => p.name)).toEqual(["T", "S", "C", "n"]);
+    expect(step.spec).toEqual({ id: "theis+well-loss", steps: [{ start: 0, rate: 400 }, { start: 0.1, rate: 800 }] });
+    expect(() => getModel({ id: "theis+well-loss", steps: [{ start: 0, rate: 400 }] })).toThrow(/needs at least two steps of different rates/);
+    expect(() => getModel({ id: "theis+well-loss", steps: [{ start: 0.1, rate: 400 }, { start: 0.1, rate: 800 }] })).toThrow(/step 1 starts at 0.1 d, not after step 0/);
+    expect(() => getModel({ id: "theis+well-loss", steps: [{ start: 0, Q: 400 }] })).toThrow(/step 0 is \{"start":0,"Q":400\}/);
+    expect(() => getModel("hantush-jacob+well-loss")).toThrow(/registered for "theis\+well-loss" and "papadopulos-cooper\+well-loss" only/);
   });
 
   it.each(modelIds)("describes %s with author, year, source, assumptions, validity, cautions and parameters", (id) => {
@@ -90,7 +117,7 @@ describe("model registry and descriptors", () => {
     }
   });
 
-  it.each(Object.keys(models) as (keyof typeof models)[])("gives %s a Jacobian with one column per parameter and one row per time", (id) => {
+  it.each((Object.keys(models) as (keyof typeof models)[]).filter((id) => models[id].jacobian))("gives %s a Jacobian with one column per parameter and one row per time", (id) => {
     const m: DrawdownModel = models[id];
     const p = m.parameters.map((d) => Math.sqrt(d.bounds[0] * d.bounds[1]));
     const J = m.jacobian!(p, { r: 10, Q: 100 }, [0.5, 1, 2]);

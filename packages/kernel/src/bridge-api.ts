@@ -88,6 +88,28 @@ import {
   type ModelSpec,
 } from "@conebook/aquifer";
 import {
+  barometricResponse,
+  bouwerRiceLnReRw,
+  compositePlot,
+  dupuitThiemTwoWells,
+  earthTideCheck,
+  fitAnisotropy,
+  fitKgsSlugTest,
+  fitStepDrawdown,
+  fitUnderdampedSlugTest,
+  hantushJacobMatchPoint,
+  hornerPlot,
+  jacobLohmanG,
+  neumanMatchPoint,
+  normalizeSlugRecord,
+  powerTimePlot,
+  slopeHints,
+  slugRecordChecks,
+  transmissivityEllipse,
+  transmissivityFromSpecificCapacity,
+  type NormalizedSlugRecord,
+} from "@conebook/aquifer";
+import {
   ArgumentError,
   arrayOf,
   booleanArg,
@@ -112,6 +134,7 @@ import {
   type Checked,
   type Validator,
 } from "./validators.js";
+import { anisotropyEllipseChart, slugResponseChart, specialisedPlotChart } from "./charts/index.js";
 import {
   distanceDrawdownChart,
   logLogDrawdownChart,
@@ -194,11 +217,11 @@ const modelIdArg: Validator<DrawdownModel> = {
 };
 
 /** A model spec as a fit result carries it: an id, or { id, ...options } with the options as numbers (base units). */
-const modelSpecData: Validator<ModelSpec> = oneOf(stringArg(), refine(mapOf(oneOf(stringArg(), finite)), "{ id, ...options }", (o, at) => {
+const modelSpecData: Validator<ModelSpec> = oneOf(stringArg(), refine(mapOf(oneOf(stringArg(), finite, booleanArg, arrayOf(recordArg({ start: finite, rate: finite })))), "{ id, ...options }", (o, at) => {
   if (typeof o.id !== "string") throw new ArgumentError(`${at} must have an id (a model id)`);
   return o as ModelSpec;
 }));
-const geometryArg = recordArg({ r: positive, Q: finite });
+const geometryArg = recordArg({ r: positive, Q: finite, x: optional(finite), y: optional(finite) });
 /** Times or drawdowns as the aquifer functions take them; they report non-finite entries with the point index. */
 const samples = numbersArg({ allowNonFinite: true }, 0);
 
@@ -601,6 +624,32 @@ function describeParsedUnit(text: string): unknown {
   return { symbol: unit.symbol, dimension: { ...unit.dimension }, dimensionName: dimensionName(unit.dimension), factor: unit.factor, description: describeUnit(unit) };
 }
 
+// ---- Argument shapes of the screened-well, step, slug, anisotropy, diagnostic and barometric methods ----------
+
+const scheduleStepsArg = arrayOf(recordArg({ start: finite, rate: finite }), 2);
+const fittedOrNumber = oneOf(nonNegative, stringArg(["fitted"]));
+const fitTolerancesArg = optional(recordArg({ ftol: optional(positive), xtol: optional(positive), gtol: optional(positive), maxEvaluations: optional(numberArg({ min: 1, max: 100000, integer: true })) }));
+const startFixedArg = optional(recordArg({ start: optional(mapOf(finite)), fixed: optional(mapOf(finite)), fit: fitTolerancesArg }));
+const kgsGeometryArg = recordArg({
+  thickness: positive,
+  screenTop: nonNegative,
+  screenBottom: positive,
+  rc: positive,
+  rw: positive,
+  anisotropy: optional(positive),
+  skin: optional(fittedOrNumber),
+});
+const underdampedGeometryArg = recordArg({ rc: positive, screenLength: positive, lnReRw: positive });
+const lineRangeArg = optional(recordArg({ fitFrom: optional(finite), fitTo: optional(finite) }));
+const normalizedSlugArg = pickArg({ t: samples, h: samples, H0: finite });
+const slopeOptionsArg = recordArg({
+  windowLog10: optional(positive),
+  halfTolerance: optional(positive),
+  quarterTolerance: optional(positive),
+  minSpanLog10: optional(nonNegative),
+  troughDepth: optional(positive),
+});
+
 /** Aquifer functions callable from a cell, by guest name. Base units: m, d, m3/d, m2/d (see the aquifer docs). */
 export const AQUIFER_API: Readonly<Record<string, BridgeEntry>> = {
   "aq.expint1": fn("Exponential integral E1(x) = Theis well function W(u), x >= 0, dimensionless", [arg("x", nonNegative)], (x) => expint1(x)),
@@ -877,6 +926,101 @@ export const AQUIFER_API: Readonly<Record<string, BridgeEntry>> = {
     [arg("fits", arrayOf(comparableFitArg, 1)), arg("options", optional(recordArg({ names: optional(stringsArg()), lengthUnit: optional(stringArg()) })))],
     (fits, options) => compareModels(fits, options),
   ),
+  "aq.fitStepDrawdown": fn(
+    "Transient step test: aquifer model (id or spec) by superposition plus well loss C Q^n fitted to the whole pumped-well record { aquifer, steps, wellRadius (m), t (d), s (m), start?, fixed? }",
+    [arg("input", recordArg({ aquifer: modelIdArg, steps: scheduleStepsArg, wellRadius: positive, t: samples, s: samples, start: optional(mapOf(finite)), fixed: optional(mapOf(finite)), fit: fitTolerancesArg }))],
+    (input) => fitStepDrawdown(input),
+  ),
+  "aq.transmissivityFromSpecificCapacity": fn(
+    "T (m2/d) from specific capacity Q/s (m2/d) after pumping time t (d) at well radius rw (m) with an assumed S (Theis at the well): { T, u, notes }",
+    [arg("specificCapacity", positive), arg("t", positive), arg("rw", positive), arg("S", positive)],
+    (specificCapacity, t, rw, S) => transmissivityFromSpecificCapacity(specificCapacity, t, rw, S),
+  ),
+  "aq.fitKgsSlugTest": fn(
+    "KGS slug test (Hyder et al. 1994) fitted to H/H0 at t (d) for { thickness, screenTop, screenBottom, rc, rw (m), anisotropy?, skin? }: { fit, Kr (m/d), KrCi95 }",
+    [arg("geometry", kgsGeometryArg), arg("t", samples), arg("h", samples), arg("options", startFixedArg)],
+    (geometry, t, h, options) => fitKgsSlugTest(geometry as Parameters<typeof fitKgsSlugTest>[0], t, h, options ?? {}),
+  ),
+  "aq.fitUnderdampedSlugTest": fn(
+    "Underdamped slug test (van der Kamp 1976) fitted to H/H0 at t (d) for { rc (m), screenLength (m), lnReRw }: { fit (K m/d, Le m), CD }",
+    [arg("geometry", underdampedGeometryArg), arg("t", samples), arg("h", samples), arg("options", startFixedArg)],
+    (geometry, t, h, options) => fitUnderdampedSlugTest(geometry, t, h, options ?? {}),
+  ),
+  "aq.normalizeSlugRecord": fn(
+    "A slug record in base units: { t (d), h = H/H0, H0 (m), index, dropped } within range { fromTime?, toTime?, minNormalizedHead?, maxNormalizedHead? }",
+    [arg("record", slugRecordArg), arg("range", optional(slugRangeArg)), arg("positiveOnly", optional(booleanArg))],
+    (record, range, positiveOnly) => normalizeSlugRecord(record, range ?? {}, positiveOnly ?? true),
+  ),
+  "aq.slugRecordChecks": fn(
+    "Slug-test data checks: H0 against the expected displacement (m), first reading against H/H0 = 1, repeat tests against each other: [{ test, kind, ok, message }]",
+    [arg("records", arrayOf(recordArg({ name: stringArg(), record: normalizedSlugArg, expectedH0: optional(finite) }), 1)), arg("options", optional(recordArg({ tolerance: optional(positive), agreement: optional(positive) })))],
+    (records, options) => slugRecordChecks(records.map((r) => ({ ...r, record: { ...r.record, index: new Int32Array(0) } as NormalizedSlugRecord })), options ?? {}),
+  ),
+  "aq.bouwerRiceLnReRw": fn(
+    "Bouwer-Rice (1976) shape factor ln(Re/rw) from rw, Le, Lw, D (one length unit): { lnReRw, fullyPenetrating, cappedLog }",
+    [arg("rw", positive), arg("Le", positive), arg("Lw", positive), arg("D", positive)],
+    (rw, Le, Lw, D) => bouwerRiceLnReRw(rw, Le, Lw, D),
+  ),
+  "aq.fitAnisotropy": fn(
+    "Papadopulos (1965) horizontal anisotropy from three or more wells with geometry { r, Q, x, y } (m): Tmax, Tmin (m2/d), direction (deg) with intervals, S, ellipse",
+    [arg("wells", arrayOf(wellArg, 3))],
+    (wells) => fitAnisotropy(wells),
+  ),
+  "aq.transmissivityEllipse": fn(
+    "Points { x, y } of the transmissivity ellipse (radius sqrt(T), m/d^0.5) for Tmax, Tmin (m2/d) and the direction theta (rad)",
+    [arg("Tmax", positive), arg("Tmin", positive), arg("theta", finite), arg("count", optional(numberArg({ min: 3, max: 10000, integer: true })))],
+    (Tmax, Tmin, theta, count) => transmissivityEllipse(Tmax, Tmin, theta, count),
+  ),
+  "aq.slopeHints": fn(
+    "Hints of linear (1/2), bilinear (1/4), spherical (-1/2) flow and of a delayed-yield trough from a log derivative { times, derivative }: { hints, localSlopes }",
+    [arg("derivative", pickArg({ times: samples, derivative: samples })), arg("options", optional(slopeOptionsArg))],
+    (derivative, options) => slopeHints(derivative, options ?? {}),
+  ),
+  "aq.powerTimePlot": fn(
+    "Specialised plot s against t^power (1/2 linear flow, 1/4 bilinear) with its line over x in [fitFrom, fitTo]: { x, y, slope, intercept }",
+    [arg("t", samples), arg("s", samples), arg("power", finite), arg("fit", lineRangeArg)],
+    (t, s, power, fit) => powerTimePlot(t, s, power, fit ?? {}),
+  ),
+  "aq.hornerPlot": fn(
+    "Horner-type recovery plot: residual drawdown against log10((tp + dt)/dt) with its line: { x, y, slope, intercept }",
+    [arg("tp", positive), arg("dt", samples), arg("residual", samples), arg("fit", lineRangeArg)],
+    (tp, dt, residual, fit) => hornerPlot(tp, dt, residual, fit ?? {}),
+  ),
+  "aq.compositePlot": fn(
+    "Composite plot data: s against t/r^2 (d/m2) for wells [{ name, r (m), t (d), s (m) }]",
+    [arg("wells", arrayOf(recordArg({ name: stringArg(), r: positive, t: samples, s: samples }), 1))],
+    (wells) => compositePlot(wells),
+  ),
+  "aq.hantushJacobMatchPoint": fn(
+    "T (m2/d), S, B (m) and leakance (1/d) from a Hantush-Jacob match point { Q, r, W, u, rB, s, t }, with the reading error of W",
+    [arg("input", recordArg({ Q: positive, r: positive, W: positive, u: positive, rB: positive, s: positive, t: positive }))],
+    (input) => hantushJacobMatchPoint(input),
+  ),
+  "aq.neumanMatchPoint": fn(
+    "T (m2/d), S or Sy and Kz/Kr from a Neuman match point { Q, r, b, branch 'A' or 'B', sD, tDimensionless, beta, sigma, s, t }, with the reading error",
+    [arg("input", recordArg({ Q: positive, r: positive, b: positive, branch: stringArg(["A", "B"]), sD: positive, tDimensionless: positive, beta: positive, sigma: positive, s: positive, t: positive }))],
+    (input) => neumanMatchPoint(input as Parameters<typeof neumanMatchPoint>[0]),
+  ),
+  "aq.dupuitThiemTwoWells": fn(
+    "Dupuit-Thiem K (m/d) from steady saturated thicknesses h1, h2 (m above the base) at r1, r2 (m) for Q (m3/d)",
+    [arg("Q", positive), arg("r1", positive), arg("h1", positive), arg("r2", positive), arg("h2", positive)],
+    (Q, r1, h1, r2, h2) => dupuitThiemTwoWells(Q, r1, h1, r2, h2),
+  ),
+  "aq.jacobLohmanG": fn(
+    "Jacob-Lohman (1952) G(alpha), alpha = T t / (S rw^2): the discharge of a well at constant drawdown is 2 pi T sw G",
+    [arg("alpha", positive)],
+    (alpha) => jacobLohmanG(alpha),
+  ),
+  "aq.barometricResponse": fn(
+    "Barometric response function by lagged regression (Rasmussen-Crawford 1997) { times, timeUnit, levels, levelKind, levelUnit, pressures, pressureUnit, lags, earthTides? }",
+    [arg("options", recordArg({ times: samples, timeUnit: stringArg(), ...barometricFields, lags: numberArg({ min: 0, integer: true }), earthTides: optional(booleanArg) }))],
+    (options) => barometricResponse(options as Parameters<typeof barometricResponse>[0]),
+  ),
+  "aq.earthTideCheck": fn(
+    "Earth-tide check: amplitudes of O1, K1, M2, S2 (valueUnit) with standard errors by harmonic regression { times, timeUnit, values, valueUnit }",
+    [arg("options", recordArg({ times: samples, timeUnit: stringArg(), values: samples, valueUnit: stringArg() }))],
+    (options) => earthTideCheck(options),
+  ),
 };
 
 const values = numbersArg({ allowNonFinite: true }, 0);
@@ -918,6 +1062,25 @@ export const CHART_API: Readonly<Record<string, BridgeEntry>> = {
     "Step-drawdown plot of sw/Q against Q { Q, sw, line?: { B, C }, rateUnit?, lengthUnit?, title? }",
     [arg("input", recordArg({ Q: values, sw: values, line: optional(recordArg({ B: finite, C: finite })), rateUnit: text, lengthUnit: text, title: text }))],
     (input) => stepTestChart(input),
+  ),
+  "charts.specialisedPlot": fn(
+    "Specialised plot of series [{ name, x, y }] with a line { slope, intercept }: s against sqrt t, Horner, composite t/r^2 { xTitle, yTitle, logX?, title? }",
+    [arg("input", recordArg({
+      series: arrayOf(recordArg({ name: stringArg(), x: values, y: values }), 1),
+      line: optional(recordArg({ slope: finite, intercept: finite, label: text })),
+      xTitle: stringArg(), yTitle: stringArg(), logX: optional(booleanArg), title: text,
+    }))],
+    (input) => specialisedPlotChart(input),
+  ),
+  "charts.slugResponse": fn(
+    "Slug test H/H0 against time { t, h, model?: { t, h, label? }, timeUnit?, logTime?, title? }",
+    [arg("input", recordArg({ t: values, h: values, model: optional(recordArg({ t: values, h: values, label: text })), timeUnit: text, logTime: optional(booleanArg), title: text }))],
+    (input) => slugResponseChart(input),
+  ),
+  "charts.anisotropyEllipse": fn(
+    "The transmissivity ellipse (scaled to the farthest well) with the observation wells { ellipse: { x, y }, wells: [{ name, x, y }], title? }",
+    [arg("input", recordArg({ ellipse: recordArg({ x: values, y: values }), wells: arrayOf(recordArg({ name: stringArg(), x: finite, y: finite }), 1), title: text }))],
+    (input) => anisotropyEllipseChart(input),
   ),
 };
 

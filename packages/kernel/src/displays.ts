@@ -8,6 +8,15 @@ import type { CellOutput } from "@conebook/document";
 
 import { DisplayError } from "./display-error.js";
 import { comparisonOutputs, forecastOutputs, recoveryOutputs, slugTestOutputs, stepTestOutputs } from "./result-tables.js";
+import {
+  anisotropyOutputs,
+  barometricResponseOutputs,
+  earthTideOutputs,
+  matchPointOutputs,
+  slopeHintOutputs,
+  slugChecksOutputs,
+  specificCapacityOutputs,
+} from "./result-tables.js";
 
 export { DisplayError };
 
@@ -357,6 +366,13 @@ const RESULT_DISPLAYS: Readonly<Record<string, (result: unknown, options: unknow
   recovery: recoveryOutputs,
   forecast: forecastOutputs,
   comparison: comparisonOutputs,
+  slugChecks: slugChecksOutputs,
+  specificCapacity: specificCapacityOutputs,
+  anisotropy: anisotropyOutputs,
+  slopeHints: slopeHintOutputs,
+  matchPoint: matchPointOutputs,
+  barometricResponse: barometricResponseOutputs,
+  earthTide: earthTideOutputs,
 };
 
 /** Every output of one display record `{ kind, payload }`: none for an undefined completion value. */

@@ -408,6 +408,27 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   show.comparison = function comparison(result, options) {
     return display("comparison", { result: result, options: options });
   };
+  show.slugChecks = function slugChecks(result, options) {
+    return display("slugChecks", { result: result, options: options });
+  };
+  show.specificCapacity = function specificCapacity(result, options) {
+    return display("specificCapacity", { result: result, options: options });
+  };
+  show.anisotropy = function anisotropy(result, options) {
+    return display("anisotropy", { result: result, options: options });
+  };
+  show.slopeHints = function slopeHints(result, options) {
+    return display("slopeHints", { result: result, options: options });
+  };
+  show.matchPoint = function matchPoint(result, options) {
+    return display("matchPoint", { result: result, options: options });
+  };
+  show.barometricResponse = function barometricResponse(result, options) {
+    return display("barometricResponse", { result: result, options: options });
+  };
+  show.earthTide = function earthTide(result, options) {
+    return display("earthTide", { result: result, options: options });
+  };
   freeze(show);
 
   function control(name, options) {

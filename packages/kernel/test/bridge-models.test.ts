@@ -39,10 +39,10 @@ describe("models bound to geometry, from a cell", () => {
     );
   });
 
-  it("says leaky partial penetration is not available and names the nearest models", async () => {
+  it("points a request for leaky partial penetration by another name to the Hantush (1964) model", async () => {
     const out = await outputOf(`aq.fitModel({ model: "leaky-partial-penetration", wells: [{ name: "PZ", geometry: { r: 10, Q: 500 }, t: [1, 2, 3], s: [0.1, 0.2, 0.3] }] })`);
     expect((out as { message: string }).message).toMatch(
-      /field "model": Model "leaky-partial-penetration": partial penetration in a leaky aquifer \(Hantush 1964\) is not available.*Nearest available models: "hantush-partial-penetration".*"hantush-jacob"/,
+      /field "model": Unknown model "leaky-partial-penetration"; for a partially penetrating well in a leaky aquifer use "hantush-leaky-partial-penetration" \(Hantush 1964\)/,
     );
   });
 

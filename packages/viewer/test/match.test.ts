@@ -7,7 +7,7 @@
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
-import { getModel, modelIds, theisDrawdown } from "@conebook/aquifer";
+import { describeModel, getModel, modelIds, theisDrawdown, type ModelSpec } from "@conebook/aquifer";
 import { parseDocument, type CellOutput, type ConebookDocument } from "@conebook/document";
 import { createKernel, recordedRunSettings } from "@conebook/kernel";
 import { fileReaderFor } from "@conebook/kernel/node";
@@ -60,6 +60,18 @@ describe("the records the probe finds", () => {
   });
 });
 
+/** The model `id` bound to a plausible geometry: each required option from its descriptor gets a value. */
+function withGeometry(id: string): ModelSpec {
+  const required = describeModel(id).options.filter((o) => o.required);
+  if (required.length === 0) return id;
+  const lengths: Record<string, number> = { aquiferThickness: 20, screenTop: 0, screenBottom: 10, saturatedThickness: 10, casingRadius: 0.1, wellRadius: 0.1, screenLength: 5, halfLength: 20, wellDrawdown: 5 };
+  const spec: Record<string, unknown> = { id };
+  for (const o of required) spec[o.name] = o.kind === "schedule" ? [{ start: 0, rate: 800 }, { start: 0.1, rate: 1600 }] : o.name === "lnReRw" ? 3 : (lengths[o.name] ?? 5);
+  // Partial-penetration models also need the observation depth, which is optional only in the descriptor.
+  if (describeModel(id).options.some((o) => o.name === "piezometerDepth")) spec.piezometerDepth = 5;
+  return spec as ModelSpec;
+}
+
 describe("a drag in log time and log drawdown", () => {
   const record = { r: 28, Q: 1450 };
   const t = Float64Array.from({ length: 40 }, (_, k) => 1e-4 * 10 ** (k / 10));
@@ -68,6 +80,7 @@ describe("a drag in log time and log drawdown", () => {
     ["hantush-jacob", { id: "hantush-jacob", options: {} }, [400, 1e-4, 2000]],
     ["hantush-aquitard-storage", { id: "hantush-aquitard-storage", options: {} }, [400, 1e-4, 2000, 1e-4]],
     ["neuman", { id: "neuman", options: { saturatedThickness: 12 } }, [400, 1e-3, 0.1, 0.2]],
+    ["boulton", { id: "boulton", options: {} }, [400, 1e-4, 0.1, 0.5]],
     ["hantush-partial-penetration", { id: "hantush-partial-penetration", options: { aquiferThickness: 20, screenTop: 0, screenBottom: 10, piezometerDepth: 5 } }, [400, 1e-4, 0.1]],
   ];
   for (const [name, choice, values] of cases) {
@@ -83,10 +96,11 @@ describe("a drag in log time and log drawdown", () => {
     });
   }
 
-  it("classes every registered model's parameters, with T the only one scaled by 1/a", () => {
+  it("classes every registered model's parameters, with the transmissivities the only ones scaled by 1/a", () => {
     for (const id of modelIds) {
-      const roles = parameterRoles(getModel(id === "neuman" ? { id, saturatedThickness: 10 } : id === "papadopulos-cooper" ? { id, casingRadius: 0.1, wellRadius: 0.1 } : id === "hantush-partial-penetration" ? { id, aquiferThickness: 20, screenTop: 0, screenBottom: 10, piezometerDepth: 5 } : id));
-      expect(roles.filter((r) => r === "transmissivity").length, id).toBe(1);
+      const roles = parameterRoles(getModel(withGeometry(id)));
+      // Papadopulos (1965) has two principal transmissivities; scaling both by 1/a keeps sqrt(Tmax Tmin) and their ratio.
+      expect(roles.filter((r) => r === "transmissivity").length, id).toBe(id === "papadopulos-anisotropy" ? 2 : 1);
     }
   });
 });

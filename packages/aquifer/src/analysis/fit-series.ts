@@ -107,6 +107,20 @@ function sameSchedule(a: SeriesInBaseUnits["steps"], b: SeriesInBaseUnits["steps
 /** The model the wells are fitted with: the base model, or the base model driven by the series' common schedule. */
 function scheduleModel(model: DrawdownModel, bases: readonly SeriesInBaseUnits[]): { model: DrawdownModel; steps: PumpingStep[] | null } {
   const stepped = bases.findIndex((b) => b.Q === null);
+  const own = (model as DrawdownModel & { steps?: readonly PumpingStep[] }).steps;
+  if (model.id.endsWith("+well-loss") && own !== undefined) {
+    // A step test with well loss carries its schedule: the series must follow it and are not wrapped again.
+    const start = Float64Array.from(own, (s) => s.start);
+    const rate = Float64Array.from(own, (s) => s.rate);
+    for (const b of bases) {
+      if (b.Q === null && !sameSchedule(b.steps, { start, rate } as SeriesInBaseUnits["steps"])) {
+        throw new AnalysisInputError(
+          `${WHERE}: series "${b.name}" does not follow the steps of model "${model.id}"; give the model the series' rate schedule (in d and m3/d) as its steps.`,
+        );
+      }
+    }
+    return { model, steps: own.map((s) => ({ start: s.start, rate: s.rate })) };
+  }
   if (stepped < 0) return { model, steps: null };
   const reference = bases[stepped]!;
   bases.forEach((b) => {

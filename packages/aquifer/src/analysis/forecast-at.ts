@@ -90,9 +90,27 @@ export interface ForecastAtResult {
 
 const WHERE = "forecastAt";
 
+/** Suffix of the registered step-test models with a well loss C Q^n ("theis+well-loss", ...). */
+const WELL_LOSS = "+well-loss";
+
+/**
+ * The aquifer model under a step test with well loss: Theis, or Papadopulos-Cooper with the casing, screen and
+ * skin of the fit's spec.
+ */
+function wellLossAquifer(fit: ForecastableFit): DrawdownModel {
+  const base = fit.modelId.slice(0, -WELL_LOSS.length);
+  const spec = fit.modelSpec;
+  if (spec !== undefined && typeof spec === "object") {
+    const { id: _id, steps: _steps, ...options } = spec as { id: string; steps?: unknown; [option: string]: unknown };
+    return getModel(Object.keys(options).length === 0 ? base : { id: base, ...options });
+  }
+  return getModel(base);
+}
+
 /** The model to forecast with: the given one, or the fit's model; fits with boundaries or several wells are refused. */
 function forecastModel(fit: ForecastableFit, model: DrawdownModel | ModelSpec | undefined): DrawdownModel {
   if (model !== undefined) return typeof model === "object" && typeof (model as DrawdownModel).drawdown === "function" ? (model as DrawdownModel) : getModel(model as ModelSpec);
+  if (fit.modelId.endsWith(WELL_LOSS)) return wellLossAquifer(fit);
   const [baseId, wrapper] = fit.modelId.split("+");
   if (wrapper !== undefined && wrapper !== "schedule") {
     throw new AnalysisInputError(
@@ -110,6 +128,8 @@ function forecastModel(fit: ForecastableFit, model: DrawdownModel | ModelSpec | 
  * fit's degrees of freedom and residual scatter (m) for Student t confidence and prediction bands. The forecasts
  * then work in the fit's own space: fitModel fits exactly the positive parameters in ln space, which is what
  * forecastDrawdown assumes for given parameters (forecast/parameters.ts), so the numbers are those of { fit }.
+ * A fit with parameters the forecast model lacks (the well loss C, n of a step test forecast with its aquifer
+ * model) gives the covariance of the model's parameters only: the marginal covariance, the sub-matrix.
  * @throws AnalysisInputError when the fit is of another model or lacks one of the model's parameters.
  */
 export function fitAsGivenParameters(where: string, fit: ForecastableFit, model: DrawdownModel): GivenParameters {
@@ -122,15 +142,29 @@ export function fitAsGivenParameters(where: string, fit: ForecastableFit, model:
     if (!fp) throw new AnalysisInputError(`${where}: the fit has no parameter ${d.name} (${d.label}).`);
     parameters[d.name] = fp.estimate;
   }
-  const matrix = fit.covariance.map((row) => Array.from(row));
+  const keep = fit.freeParameters.map((name, i) => ({ name, i })).filter(({ name }) => model.parameters.some((d) => d.name === name));
+  const matrix = keep.map(({ i }) => keep.map(({ i: j }) => fit.covariance[i]![j]!));
   const dof = fit.uncertainty?.dof ?? fit.dof;
   const scatter = fit.uncertainty?.scatter ?? fit.residualStandardError;
   return {
     parameters,
-    covariance: { names: [...fit.freeParameters], matrix },
+    covariance: { names: keep.map(({ name }) => name), matrix },
     ...(dof !== undefined ? { dof } : {}),
     ...(scatter !== undefined ? { scatter } : {}),
   };
+}
+
+/** The well loss C Q^n (m) at each distinct rate of the forecast, as notes, for a step-test fit. */
+function wellLossNotes(fit: ForecastableFit, steps: readonly { rate: number }[]): string[] {
+  const C = fit.parameters.find((q) => q.name === "C")?.estimate;
+  const n = fit.parameters.find((q) => q.name === "n")?.estimate;
+  if (C === undefined || n === undefined) return [];
+  const rates = [...new Set(steps.map((s) => s.rate).filter((q) => q > 0))];
+  const losses = rates.map((q) => `${Number((C * Math.pow(q, n)).toPrecision(3))} m at ${Number(q.toPrecision(6))} m3/d`);
+  return [
+    `The fit is of a step test with well loss: the forecast is the aquifer's drawdown (${fit.modelId.slice(0, -WELL_LOSS.length)}) without it. ` +
+      `Inside the pumped well add the well loss C Q^n = ${losses.join(", ")} (C and n at their estimates; the band covers the aquifer parameters only).`,
+  ];
 }
 
 /** The rate as pumping steps in base units (d, m3/d), step starts in `timeUnit`. */
@@ -170,17 +204,18 @@ export function forecastAt(options: ForecastAtOptions): ForecastAtResult {
     if (!p?.distance) throw new AnalysisInputError(`${WHERE}: point ${i} ("${p?.name}") needs distance: { value, unit }.`);
     return convertAt(WHERE, `points[${i}].distance`, p.distance.value, p.distance.unit, "m");
   });
+  const steps = stepsInBase(options.rate, timeUnit);
   const result = forecastDrawdown({
     model,
     ...fitAsGivenParameters(WHERE, fit, model),
-    schedule: [{ name: "pumping well", x: 0, y: 0, steps: stepsInBase(options.rate, timeUnit) }],
+    schedule: [{ name: "pumping well", x: 0, y: 0, steps }],
     points: options.points.map((p, i) => ({ name: p.name, r: distances[i]! })),
     times: t,
     uncertainty: options.uncertainty ?? "none",
     ...(options.checkpoint ? { checkpoint: options.checkpoint } : {}),
   });
   const inUnit = (values: Float64Array | null) => (values === null ? null : convertArray(values, "m", lengthUnit));
-  const notes = [...result.notes];
+  const notes = [...result.notes, ...(options.model === undefined && fit.modelId.endsWith(WELL_LOSS) ? wellLossNotes(fit, steps) : [])];
   const spec = (model as { spec?: Record<string, unknown> }).spec;
   const thickness = typeof spec?.saturatedThickness === "number" ? spec.saturatedThickness : typeof spec?.aquiferThickness === "number" ? spec.aquiferThickness : undefined;
   const largest = Math.max(...result.points.flatMap((p) => Array.from(p.drawdown)));

@@ -14,6 +14,16 @@ export type {
   BarometricEfficiencyOptions,
   BarometricRegressionMethod,
 } from "./barometric.js";
+export { TIDAL_CONSTITUENTS, barometricResponse, earthTideCheck } from "./barometric-response.js";
+export type {
+  BarometricResponseLag,
+  BarometricResponseOptions,
+  BarometricResponseResult,
+  EarthTideCheckOptions,
+  EarthTideCheckResult,
+  TidalAmplitude,
+  TidalConstituent,
+} from "./barometric-response.js";
 export { MIN_PRE_TEST_POINTS, removeLinearTrend } from "./linear-trend.js";
 export type { LinearTrend, LinearTrendOptions, LinearTrendResult } from "./linear-trend.js";
 export { JACOB_WARNING_FRACTION, correctJacobUnconfined } from "./jacob-unconfined.js";

@@ -43,7 +43,7 @@ export function dupuitThiemModel(H: number): DupuitThiemModel {
   checkScalar("dupuitThiemModel", "saturated thickness H", H, "m", true);
   const model: DupuitThiemModel = {
     id: "dupuit-thiem",
-    name: "Dupuit-Thiem steady unconfined flow",
+    name: "Dupuit (1863) and Thiem (1906) steady unconfined flow",
     source:
       "Dupuit, J. (1863). Etudes theoriques et pratiques sur le mouvement des eaux dans les canaux decouverts et " +
       "a travers les terrains permeables. Dunod, Paris. Thiem, G. (1906). Hydrologische Methoden. Gebhardt, Leipzig.",
@@ -66,6 +66,9 @@ export function dupuitThiemModel(H: number): DupuitThiemModel {
       "Drawdown in the pumped well itself is larger than the Dupuit value (seepage face, well losses).",
     ],
     parameters: [hydraulicConductivityParameter, radiusOfInfluenceParameter],
+    notSuperposable:
+      "its drawdown is not proportional to the pumping rate (the Dupuit form is linear in h^2, not in s); superpose " +
+      "H^2 - h^2 by hand, or use thiem for drawdowns small against H.",
     saturatedThickness: H,
 
     drawdown(p: ArrayLike<number>, geometry: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {

@@ -107,6 +107,7 @@ export function gringartenFractureModel(geometry: FractureGeometry): DrawdownMod
       "Finite-conductivity fractures (quarter slope, bilinear flow) are not represented.",
     ],
     parameters: [transmissivityParameter, storativityParameter],
+    directional: true,
     geometry,
     drawdown(p: ArrayLike<number>, g: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {
       checkParameters(model, p);

@@ -45,8 +45,11 @@ export {
   type GeometryModelId,
   type ModelDescription,
   type ModelId,
+  type CheckedOption,
   type ModelOptionDescriptor,
+  type ModelOptionKind,
   type ModelSpec,
+  type ScheduleStep,
   type OptionValue,
   type SpecifiedModel,
 } from "./registry.js";
@@ -143,3 +146,12 @@ export {
 } from "./moench-double-porosity.js";
 export { papadopulosAnisotropyModel, transmissivityEllipse, transmissivityTensor } from "./papadopulos-anisotropy.js";
 export { gringartenFractureModel, type FractureGeometry } from "./gringarten-fracture.js";
+export { boultonModel, BOULTON_STEHFEST_TERMS } from "./boulton.js";
+export {
+  JACOB_LOHMAN_STEHFEST_TERMS,
+  jacobLohmanG,
+  jacobLohmanModel,
+  type ConstantDrawdownWell,
+  type JacobLohmanModel,
+} from "./jacob-lohman.js";
+export { hantushLeakyPartialPenetrationModel, type LeakyPartialPenetrationModel } from "./hantush-leaky-penetration.js";

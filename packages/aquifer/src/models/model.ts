@@ -49,6 +49,17 @@ export interface ModelDescriptor {
    * storativity below the specific yield). Fitting enforces them.
    */
   readonly orderedParameters?: readonly (readonly [string, string])[];
+  /**
+   * Why the model's output cannot be superposed over rate changes or wells (absent when it can): a slug test's
+   * normalized head, the discharge of a well held at a constant drawdown, a well loss that is not linear in Q.
+   * Superposition (rate schedules, several wells, boundaries, forecasts) refuses such a model with this sentence.
+   */
+  readonly notSuperposable?: string;
+  /**
+   * True when the drawdown depends on the direction from the pumping well (geometry.x and geometry.y), not on
+   * the distance r alone (horizontal anisotropy, a vertical fracture).
+   */
+  readonly directional?: boolean;
 }
 
 /** What a model needs to know about one observation point, in base units. */

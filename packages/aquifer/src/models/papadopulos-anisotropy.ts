@@ -18,6 +18,7 @@ import { checkParameters, outputArray } from "./checks.js";
 import { ModelInputError } from "./errors.js";
 import type { DrawdownModel, ObservationGeometry, ParameterDescriptor } from "./model.js";
 import { storativityParameter } from "./parameters.js";
+import { portableCos, portableSin } from "../numerics/portable-math.js";
 
 const tMax: ParameterDescriptor = {
   name: "Tmax",
@@ -46,8 +47,8 @@ const theta: ParameterDescriptor = {
 
 /** Txx, Tyy, Txy (m2/d) of a principal-axis description (Tmax, Tmin in m2/d, theta in radians). */
 export function transmissivityTensor(Tmax: number, Tmin: number, angle: number): { Txx: number; Tyy: number; Txy: number } {
-  const c = Math.cos(angle);
-  const s = Math.sin(angle);
+  const c = portableCos(angle);
+  const s = portableSin(angle);
   return { Txx: Tmax * c * c + Tmin * s * s, Tyy: Tmax * s * s + Tmin * c * c, Txy: (Tmax - Tmin) * s * c };
 }
 
@@ -84,6 +85,7 @@ export const papadopulosAnisotropyModel: DrawdownModel = {
     "theta and theta + pi are the same direction; Tmax and Tmin swap when theta turns by pi/2.",
   ],
   parameters: [tMax, tMin, theta, storativityParameter],
+  directional: true,
   drawdown(p: ArrayLike<number>, g: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {
     checkParameters(papadopulosAnisotropyModel, p);
     const { x, y } = position(papadopulosAnisotropyModel.name, g);
@@ -108,12 +110,12 @@ export function transmissivityEllipse(Tmax: number, Tmin: number, angle: number,
   if (!(Tmax > 0 && Tmin > 0)) throw new ModelInputError(`transmissivityEllipse: Tmax = ${Tmax}, Tmin = ${Tmin} m2/d; both must be > 0.`);
   const x = new Float64Array(count);
   const y = new Float64Array(count);
-  const c = Math.cos(angle);
-  const s = Math.sin(angle);
+  const c = portableCos(angle);
+  const s = portableSin(angle);
   for (let k = 0; k < count; k++) {
     const phi = (2 * Math.PI * k) / (count - 1);
-    const a = Math.sqrt(Tmax) * Math.cos(phi);
-    const b = Math.sqrt(Tmin) * Math.sin(phi);
+    const a = Math.sqrt(Tmax) * portableCos(phi);
+    const b = Math.sqrt(Tmin) * portableSin(phi);
     x[k] = a * c - b * s;
     y[k] = a * s + b * c;
   }

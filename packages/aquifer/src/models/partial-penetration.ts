@@ -19,6 +19,7 @@ import { ModelInputError } from "./errors.js";
 import type { DrawdownModel, ObservationGeometry, ParameterDescriptor } from "./model.js";
 import { storativityParameter, transmissivityParameter } from "./parameters.js";
 import { penetrationLeakyW, penetrationLeakyWdBeta, penetrationLeakyWdU } from "./penetration-leaky-function.js";
+import { portableCos, portableSin } from "../numerics/portable-math.js";
 
 const FOUR_PI = 4 * Math.PI;
 /** Default bound on the truncation error of the series, relative to W(u). */
@@ -61,7 +62,8 @@ export interface PartialPenetrationModel extends DrawdownModel {
   readonly geometry: PartialPenetrationGeometry;
 }
 
-interface Coefficients {
+/** The series coefficients of a geometry (exported for the leaky form, hantush-leaky-penetration.ts). */
+export interface Coefficients {
   /** c_n for n = 1.. computed lazily up to the length needed. */
   readonly at: (n: number) => number;
   /** Upper bound of |c_n| times n^power. */
@@ -71,8 +73,8 @@ interface Coefficients {
   readonly zero: boolean;
 }
 
-function checkDepths(g: PartialPenetrationGeometry): void {
-  const where = "partialPenetrationModel";
+/** Checks the depths, anisotropy and tolerance of a geometry; messages name `where`. */
+export function checkDepths(g: PartialPenetrationGeometry, where = "partialPenetrationModel"): void {
   checkScalar(where, "aquifer thickness", g.thickness, "m", true);
   const b = g.thickness;
   const range = (label: string, top: number, bottom: number): void => {
@@ -101,7 +103,8 @@ function checkDepths(g: PartialPenetrationGeometry): void {
   }
 }
 
-function coefficients(g: PartialPenetrationGeometry): Coefficients {
+/** c_n of the module comment for a checked geometry. */
+export function coefficients(g: PartialPenetrationGeometry): Coefficients {
   const b = g.thickness;
   const d = g.screenTop;
   const l = g.screenBottom;
@@ -111,7 +114,7 @@ function coefficients(g: PartialPenetrationGeometry): Coefficients {
   if ("depth" in o) {
     const scale = (2 * b) / (Math.PI * (l - d));
     return {
-      at: (n) => (scale / n) * (Math.sin(n * k * l) - Math.sin(n * k * d)) * Math.cos(n * k * o.depth),
+      at: (n) => (scale / n) * (portableSin(n * k * l) - portableSin(n * k * d)) * portableCos(n * k * o.depth),
       envelope: 2 * scale,
       power: 1,
       zero,
@@ -121,18 +124,20 @@ function coefficients(g: PartialPenetrationGeometry): Coefficients {
   const z2 = o.screenBottom;
   const scale = (2 * b * b) / (Math.PI * Math.PI * (l - d) * (z2 - z1));
   return {
-    at: (n) => (scale / (n * n)) * (Math.sin(n * k * l) - Math.sin(n * k * d)) * (Math.sin(n * k * z2) - Math.sin(n * k * z1)),
+    at: (n) => (scale / (n * n)) * (portableSin(n * k * l) - portableSin(n * k * d)) * (portableSin(n * k * z2) - portableSin(n * k * z1)),
     envelope: 4 * scale,
     power: 2,
     zero: zero || (z1 === 0 && z2 === b),
   };
 }
 
-/** Sum of the series f (and its derivatives in u and in beta_1 when asked) with the truncation rule below. */
-interface SeriesValue {
+/** Sum of the series f (and its derivatives in u, beta_1 and r/B when asked) with the truncation rule below. */
+export interface SeriesValue {
   f: number;
   dfdu: number;
   dfdBeta1: number;
+  /** Derivative in r/B (0 without leakage). */
+  dfdRB: number;
   terms: number;
 }
 
@@ -141,37 +146,50 @@ interface SeriesValue {
  * n-th term and rho = max(W_n / W_{n-1}, exp(-beta1)) (W decreases in beta; at late time
  * W -> 2 K0 and K0(beta + beta1) / K0(beta) < exp(-beta1)), the tail is estimated as e_n rho / (1 - rho),
  * and the sum stops once that is below tol * W(u). Checked against mpmath (series to 1e-18) in the tests.
+ * With leakage (rB = r/B > 0, Hantush 1964) the terms are W(u, beta_n), beta_n = sqrt(rB^2 + n^2 beta1^2), the
+ * target is tol * W(u, rB) and the floor of rho is exp(-(beta_n - beta_(n-1))), whose increments grow with n.
  */
-function sumSeries(
+export function sumSeries(
   u: number,
   beta1: number,
   c: Coefficients,
   tol: number,
   derivatives: boolean,
   where: string,
+  rB = 0,
 ): SeriesValue {
-  const target = tol * expint1(u);
+  const leaky = rB > 0;
+  const target = tol * (leaky ? penetrationLeakyW(u, rB) : expint1(u));
   const floorRho = Math.exp(-beta1);
   let f = 0;
   let dfdu = 0;
   let dfdBeta1 = 0;
+  let dfdRB = 0;
   let previousW = Number.NaN;
+  let previousBeta = rB;
   for (let n = 1; n <= MAX_TERMS; n++) {
-    const beta = n * beta1;
+    const beta = leaky ? Math.sqrt(rB * rB + n * n * beta1 * beta1) : n * beta1;
     const w = penetrationLeakyW(u, beta);
     const cn = c.at(n);
     f += cn * w;
     if (derivatives) {
       dfdu += cn * penetrationLeakyWdU(u, beta);
-      dfdBeta1 += cn * n * penetrationLeakyWdBeta(u, beta);
+      const wb = penetrationLeakyWdBeta(u, beta);
+      if (leaky) {
+        dfdBeta1 += (cn * wb * n * n * beta1) / beta;
+        dfdRB += (cn * wb * rB) / beta;
+      } else {
+        dfdBeta1 += cn * n * wb;
+      }
     }
-    if (w === 0) return { f, dfdu, dfdBeta1, terms: n };
+    if (w === 0) return { f, dfdu, dfdBeta1, dfdRB, terms: n };
     if (n > 1) {
-      const rho = Math.max(w / previousW, floorRho);
+      const rho = Math.max(w / previousW, leaky ? Math.exp(-(beta - previousBeta)) : floorRho);
       const bound = (c.envelope / (c.power === 1 ? n : n * n)) * w;
-      if (rho < 1 && (bound * rho) / (1 - rho) < target) return { f, dfdu, dfdBeta1, terms: n };
+      if (rho < 1 && (bound * rho) / (1 - rho) < target) return { f, dfdu, dfdBeta1, dfdRB, terms: n };
     }
     previousW = w;
+    previousBeta = beta;
   }
   throw new ModelInputError(
     `${where}: the partial-penetration series did not reach the tolerance ${tol} in ${MAX_TERMS} terms ` +
@@ -273,7 +291,7 @@ export function partialPenetrationModel(geometry: PartialPenetrationGeometry): P
         if (ti > 0 && Number.isFinite(ti)) {
           // s = coef (W(u) + f(u, beta1)); du/dT = -u/T, du/dS = u/S, dbeta1/dKzKr = beta1 / (2 KzKr).
           const u = uTimesT / ti;
-          const series = c.zero ? { f: 0, dfdu: 0, dfdBeta1: 0, terms: 0 } : sumSeries(u, beta1, c, tol, true, model.name);
+          const series = c.zero ? { f: 0, dfdu: 0, dfdBeta1: 0, dfdRB: 0, terms: 0 } : sumSeries(u, beta1, c, tol, true, model.name);
           const s = coef * (expint1(u) + series.f);
           const uDsDu = coef * u * (-Math.exp(-u) / u + series.dfdu);
           dT[i] = (-s - uDsDu) / T;

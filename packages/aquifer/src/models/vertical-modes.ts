@@ -46,6 +46,7 @@
  */
 import { besselK0, besselK0e, besselK1e } from "../special/index.js";
 import { firstRootGuess, neumanNextRoot, neumanRoot } from "./neuman-laplace.js";
+import { portableCos, portableSin } from "../numerics/portable-math.js";
 
 /** Relative truncation tolerance of the directly summed series. */
 export const SERIES_TOLERANCE = 1e-11;
@@ -123,20 +124,20 @@ export interface ModeWell {
 
 /** Difference sin(e u) - sin(e v) as 2 cos(e (u + v) / 2) sin(e (u - v) / 2), accurate for small e. */
 function sinDifference(e: number, u: number, v: number): number {
-  return 2 * Math.cos(0.5 * e * (u + v)) * Math.sin(0.5 * e * (u - v));
+  return 2 * portableCos(0.5 * e * (u + v)) * portableSin(0.5 * e * (u - v));
 }
 
 /** c_n of the module comment for eigenvalue e (> 0), screen zetaA..zetaB, thickness b; 1/m. */
 function screenCoefficient(e: number, g: VerticalGeometry): number {
   const L = g.zetaB - g.zetaA;
-  return (4 * sinDifference(e, g.zetaB / g.b, g.zetaA / g.b)) / (L * (2 * e + Math.sin(2 * e)));
+  return (4 * sinDifference(e, g.zetaB / g.b, g.zetaA / g.b)) / (L * (2 * e + portableSin(2 * e)));
 }
 
 /** o_n of the module comment for eigenvalue e (> 0): observation average or piezometer value; dimensionless. */
 function observationCoefficient(e: number, g: VerticalGeometry, screen: boolean): number {
   const o = g.observation;
   if (screen) return (g.b * sinDifference(e, g.zetaB / g.b, g.zetaA / g.b)) / ((g.zetaB - g.zetaA) * e);
-  if ("zeta" in o) return Math.cos((e * o.zeta) / g.b);
+  if ("zeta" in o) return portableCos((e * o.zeta) / g.b);
   return (g.b * sinDifference(e, o.zeta2 / g.b, o.zeta1 / g.b)) / ((o.zeta2 - o.zeta1) * e);
 }
 
@@ -148,12 +149,12 @@ function observationCoefficient(e: number, g: VerticalGeometry, screen: boolean)
 function waterTableCoefficient(e: number, gamma: number, g: VerticalGeometry, screen: boolean): number {
   const b = g.b;
   const L = g.zetaB - g.zetaA;
-  const d = Math.sin((e * g.zetaB) / b) - Math.sin((e * g.zetaA) / b);
+  const d = portableSin((e * g.zetaB) / b) - portableSin((e * g.zetaA) / b);
   const c = (4 * d) / (L * (2 * e + (2 * gamma * e) / (e * e + gamma * gamma)));
   if (screen) return (c * b * d) / (L * e);
   const o = g.observation;
-  if ("zeta" in o) return c * Math.cos((e * o.zeta) / b);
-  return (c * b * (Math.sin((e * o.zeta2) / b) - Math.sin((e * o.zeta1) / b))) / ((o.zeta2 - o.zeta1) * e);
+  if ("zeta" in o) return c * portableCos((e * o.zeta) / b);
+  return (c * b * (portableSin((e * o.zeta2) / b) - portableSin((e * o.zeta1) / b))) / ((o.zeta2 - o.zeta1) * e);
 }
 
 /** Upper bound of |c_n o_n| for eigenvalue e >= pi (used in the tail bound); 1/m. */
@@ -230,8 +231,8 @@ function buildPumpedTail(kappa: number, g: VerticalGeometry, rw: number): Pumped
     const e = n * Math.PI;
     // c_n o_n = 4 b D^2 / (L^2 e (2 e + sin 2e)) with D = sin(e u_b) - sin(e u_a); at e = n pi its derivative
     // is (4 b / L^2) (D D' / e^2 - 3 D^2 / (2 e^3)), D' = u_b cos(e u_b) - u_a cos(e u_a).
-    const D = Math.sin(e * ub) - Math.sin(e * ua);
-    const dD = ub * Math.cos(e * ub) - ua * Math.cos(e * ua);
+    const D = portableSin(e * ub) - portableSin(e * ua);
+    const dD = ub * portableCos(e * ub) - ua * portableCos(e * ua);
     const a = (2 * g.b * D * D) / (L * L * e * e);
     const da = ((4 * g.b) / (L * L)) * ((D * dD) / (e * e) - (1.5 * D * D) / (e * e * e));
     const q = k * n;

@@ -9,3 +9,4 @@ export { stehfest, stehfestCoefficients, STEHFEST_MIN_TERMS, STEHFEST_MAX_TERMS 
 export type { DeHoogOptions } from "./deHoog.js";
 export { deHoog } from "./deHoog.js";
 export { besselK0Complex } from "./besselK0Complex.js";
+export { portableCos, portableExp10, portablePow, portableSin } from "./portable-math.js";

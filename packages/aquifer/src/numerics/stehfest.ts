@@ -6,6 +6,7 @@
  * (|V_k| up to about 1e9 at N = 16), so larger N loses digits to cancellation. The method suits smooth,
  * non-oscillating f; on oscillating or step-like f use `deHoog`.
  */
+import { portablePow } from "./portable-math.js";
 
 const coefficientCache = new Map<number, Float64Array>();
 
@@ -28,7 +29,7 @@ export function stehfestCoefficients(n: number): Float64Array {
     let sum = 0;
     for (let j = Math.floor((k + 1) / 2); j <= Math.min(k, half); j++) {
       sum +=
-        (Math.pow(j, half) * factorial(2 * j)) /
+        (portablePow(j, half) * factorial(2 * j)) /
         (factorial(half - j) * factorial(j) * factorial(j - 1) * factorial(k - j) * factorial(2 * j - k));
     }
     v[k - 1] = ((k + half) % 2 === 0 ? 1 : -1) * sum;

@@ -13,7 +13,7 @@
  * Source: Hyder, Z., Butler, J.J. Jr., McElwee, C.D. and Liu, W. (1994). Slug tests in partially penetrating
  * wells. Water Resources Research 30(11), 2945-2957.
  */
-import { fitModel, type FitResult } from "../fit/index.js";
+import { fitModel, type FitOptions, type FitResult } from "../fit/index.js";
 import { checkParameters, outputArray } from "../models/checks.js";
 import type { DrawdownModel, ObservationGeometry, ParameterDescriptor } from "../models/model.js";
 import { transmissivityParameter, storativityParameter } from "../models/parameters.js";
@@ -69,7 +69,7 @@ export function kgsSlugModel(geometry: KgsGeometry): KgsModel {
   const L = vertical.zetaB - vertical.zetaA;
   const model: KgsModel = {
     id: "kgs-slug",
-    name: "KGS slug test (Hyder et al. 1994), partially penetrating well with skin",
+    name: "KGS slug test of Hyder et al. (1994), partially penetrating well with skin",
     source:
       "Hyder, Z., Butler, J.J. Jr., McElwee, C.D. and Liu, W. (1994). Slug tests in partially penetrating wells. " +
       "Water Resources Research 30(11), 2945-2957. Thin skin as in Agarwal, Al-Hussainy and Ramey (1970).",
@@ -91,6 +91,7 @@ export function kgsSlugModel(geometry: KgsGeometry): KgsModel {
       "Kr, Kz/Kr and the skin cannot all be determined from one test; fix the anisotropy from other evidence.",
     ],
     parameters,
+    notSuperposable: "its output is the normalized head H/H0 of a slug test, not a drawdown driven by a pumping rate.",
     geometry,
     drawdown(p: ArrayLike<number>, _g: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {
       checkParameters(model, p);
@@ -133,14 +134,15 @@ export function kgsSlugModel(geometry: KgsGeometry): KgsModel {
 /**
  * Fits the KGS model to a normalized record (t in d since the slug, h = H/H0) by fitModel (Levenberg-Marquardt
  * in ln T and ln S, 95 % intervals); start values by name in base units (default T from the Hvorslev-type
- * scale rc^2 / t at H/H0 = 0.37, S = 1e-5). Returns the fit and Kr = T / b (m/d) with its interval.
+ * scale rc^2 / t at H/H0 = 0.37, S = 1e-5); `fit` passes ftol, xtol, gtol and maxEvaluations to fitModel. Returns
+ * the fit and Kr = T / b (m/d) with its interval.
  * Source: Hyder et al. (1994).
  */
 export function fitKgsSlugTest(
   geometry: KgsGeometry,
   t: ArrayLike<number>,
   h: ArrayLike<number>,
-  options: { start?: Record<string, number>; fixed?: Record<string, number> } = {},
+  options: { start?: Record<string, number>; fixed?: Record<string, number>; fit?: Pick<FitOptions, "ftol" | "xtol" | "gtol" | "maxEvaluations"> } = {},
 ): { fit: FitResult; Kr: number; KrCi95: readonly [number, number] | null } {
   const model = kgsSlugModel(geometry);
   let t37 = t[t.length - 1]!;
@@ -155,6 +157,7 @@ export function fitKgsSlugTest(
     wells: [{ name: "slug", geometry: { r: geometry.rw, Q: 1 }, t, s: h }],
     start: { T: (geometry.rc * geometry.rc) / t37, S: 1e-5, ...(options.start ?? {}) },
     ...(options.fixed ? { fixed: options.fixed } : {}),
+    ...(options.fit ?? {}),
   });
   const T = fit.parameters[0]!;
   const b = geometry.thickness;

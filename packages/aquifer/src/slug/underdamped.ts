@@ -15,10 +15,11 @@
  * (1991), USGS Water-Resources Investigations Report 91-4034, 36-40; Butler, J.J. Jr. (1998), The Design,
  * Performance, and Analysis of Slug Tests, Lewis Publishers.
  */
-import { fitModel, type FitResult } from "../fit/index.js";
+import { fitModel, type FitOptions, type FitResult } from "../fit/index.js";
 import { checkParameters, outputArray } from "../models/checks.js";
 import type { DrawdownModel, ObservationGeometry, ParameterDescriptor } from "../models/model.js";
 import { SlugTestInputError } from "./errors.js";
+import { portableCos, portableSin } from "../numerics/portable-math.js";
 
 /** Gravitational acceleration in m/d^2 (9.80665 m/s^2, the standard value). */
 export const GRAVITY_M_PER_D2 = 9.80665 * 86400 * 86400;
@@ -35,7 +36,7 @@ export function underdampedNormalizedHead(CD: number, tD: number): number {
   if (Math.abs(d) < 1e-8) return (1 + tD) * Math.exp(-tD);
   if (d > 0) {
     const w = Math.sqrt(d);
-    return Math.exp((-CD * tD) / 2) * (Math.cos(w * tD) + (CD / (2 * w)) * Math.sin(w * tD));
+    return Math.exp((-CD * tD) / 2) * (portableCos(w * tD) + (CD / (2 * w)) * portableSin(w * tD));
   }
   const root = Math.sqrt(-d);
   const r1 = -CD / 2 + root;
@@ -84,7 +85,7 @@ export function underdampedSlugModel(geometry: UnderdampedGeometry): DrawdownMod
   }
   const model: DrawdownModel & { geometry: UnderdampedGeometry } = {
     id: "underdamped-slug",
-    name: "Underdamped slug test (van der Kamp 1976; Springer-Gelhar 1991; Butler 1998)",
+    name: "Underdamped slug test of van der Kamp (1976), in the form of Springer-Gelhar (1991) and Butler (1998)",
     source:
       "van der Kamp, G. (1976). Determining aquifer transmissivity by means of well response tests: the " +
       "underdamped case. Water Resources Research 12(1), 71-77. Springer, R.K. and Gelhar, L.W. (1991). " +
@@ -107,6 +108,7 @@ export function underdampedSlugModel(geometry: UnderdampedGeometry): DrawdownMod
       "Repeat tests with different H0 should agree; if the normalized records differ, non-linear losses act.",
     ],
     parameters: [conductivityParameter, columnLengthParameter],
+    notSuperposable: "its output is the normalized head H/H0 of a slug test, not a drawdown driven by a pumping rate.",
     geometry,
     drawdown(p: ArrayLike<number>, _g: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {
       checkParameters(model, p);
@@ -128,13 +130,14 @@ export function underdampedSlugModel(geometry: UnderdampedGeometry): DrawdownMod
 /**
  * Fits K (m/d) and Le (m) of the underdamped model to a normalized record (t in d since the slug, h = H/H0)
  * by fitModel (Levenberg-Marquardt in ln K and ln Le, 95 % intervals). `start.Le` defaults to the given
- * column estimate or 5 m; `start.K` to 50 m/d. Source: module comment.
+ * column estimate or 5 m; `start.K` to 50 m/d; `fit` passes ftol, xtol, gtol and maxEvaluations to fitModel.
+ * Source: module comment.
  */
 export function fitUnderdampedSlugTest(
   geometry: UnderdampedGeometry,
   t: ArrayLike<number>,
   h: ArrayLike<number>,
-  options: { start?: { K?: number; Le?: number }; fixed?: Record<string, number> } = {},
+  options: { start?: { K?: number; Le?: number }; fixed?: Record<string, number>; fit?: Pick<FitOptions, "ftol" | "xtol" | "gtol" | "maxEvaluations"> } = {},
 ): { fit: FitResult; CD: number } {
   const model = underdampedSlugModel(geometry);
   const fit = fitModel({
@@ -142,6 +145,7 @@ export function fitUnderdampedSlugTest(
     wells: [{ name: "slug", geometry: { r: 1, Q: 1 }, t, s: h }],
     start: { K: options.start?.K ?? 50, Le: options.start?.Le ?? 5 },
     ...(options.fixed ? { fixed: options.fixed } : {}),
+    ...(options.fit ?? {}),
   });
   const K = fit.parameters[0]!.estimate;
   const Le = fit.parameters[1]!.estimate;

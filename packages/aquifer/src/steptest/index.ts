@@ -32,5 +32,6 @@ export {
   wellLossParameter,
   type StepDrawdownFit,
   type StepDrawdownFitInput,
+  type StepDrawdownModel,
 } from "./transient-step-fit.js";
 export { transmissivityFromSpecificCapacity, type SpecificCapacityEstimate } from "./specific-capacity.js";

@@ -11,11 +11,12 @@
  * Sources: Jacob, C.E. (1947), Trans. ASCE 112, 1047-1070; Rorabaugh, M.I. (1953), Trans. ASCE 118, 907-938;
  * superposition in time as in Birsoy, Y.K. and Summers, W.K. (1980), Ground Water 18(2), 137-144.
  */
-import { fitModel, type FitResult } from "../fit/index.js";
+import { fitModel, type FitOptions, type FitResult } from "../fit/index.js";
 import type { DrawdownModel, ObservationGeometry, ParameterDescriptor } from "../models/index.js";
 import { withRateSchedule, type PumpingStep } from "../superposition/index.js";
 import { StepTestInputError } from "./errors.js";
 import { wellLossCoefficientUnit } from "./step-performance.js";
+import { portablePow } from "../numerics/portable-math.js";
 
 /** Well-loss coefficient C of s = C Q^n, base units d^n / m^(3n - 1) (d2/m5 for n = 2). */
 export const wellLossParameter: ParameterDescriptor = {
@@ -44,6 +45,14 @@ function rateAt(steps: readonly PumpingStep[], t: number): number {
   return q;
 }
 
+/** The pumped-well model of a step test, with its aquifer model and schedule. */
+export interface StepDrawdownModel extends DrawdownModel {
+  /** The aquifer model (linear in Q) under the well loss. */
+  readonly aquifer: DrawdownModel;
+  /** The schedule: start (d) and rate (m3/d) of each step. */
+  readonly steps: readonly PumpingStep[];
+}
+
 /**
  * The pumped-well model of a stepped schedule: `aquifer` (a DrawdownModel linear in Q, evaluated at the
  * geometry's r, which should be the well radius) driven by `steps` (start d, rate m3/d) plus C Q(t)^n.
@@ -51,10 +60,10 @@ function rateAt(steps: readonly PumpingStep[], t: number): number {
  * Source: as in the module comment.
  * @throws SuperpositionInputError for a bad schedule.
  */
-export function stepDrawdownModel(aquifer: DrawdownModel, steps: readonly PumpingStep[]): DrawdownModel {
+export function stepDrawdownModel(aquifer: DrawdownModel, steps: readonly PumpingStep[]): StepDrawdownModel {
   const scheduled = withRateSchedule(aquifer, steps);
   const k = aquifer.parameters.length;
-  const model: DrawdownModel = {
+  const model: StepDrawdownModel = {
     id: `${aquifer.id}+well-loss`,
     name: `${aquifer.name}, stepped rates with well loss C Q^n`,
     source:
@@ -77,17 +86,41 @@ export function stepDrawdownModel(aquifer: DrawdownModel, steps: readonly Pumpin
         "reliable aquifer storativity.",
     ],
     parameters: [...aquifer.parameters, wellLossParameter, wellLossExponentParameter],
+    aquifer,
+    steps: steps.map((step) => ({ start: step.start, rate: step.rate })),
+    notSuperposable:
+      "its well loss C Q^n is not proportional to the rate, and its own rate schedule is already built in; " +
+      "superpose the aquifer model and add C Q^n for the rate of the pumped well.",
     drawdown(p: ArrayLike<number>, geometry: ObservationGeometry, t: ArrayLike<number>, out?: Float64Array): Float64Array {
       const result = scheduled.drawdown(Array.prototype.slice.call(p, 0, k) as number[], geometry, t, out);
       const C = p[k]!;
       const n = p[k + 1]!;
       for (let i = 0; i < t.length; i++) {
         const q = rateAt(steps, t[i]!);
-        if (q > 0) result[i]! += C * Math.pow(q, n);
+        if (q > 0) result[i]! += C * portablePow(q, n);
       }
       return result;
     },
   };
+  if (typeof scheduled.jacobian === "function") {
+    // d/dC of C Q^n is Q^n, d/dn is C Q^n ln Q; the aquifer columns are those of the schedule.
+    const aquiferJacobian = scheduled.jacobian.bind(scheduled);
+    (model as { jacobian?: DrawdownModel["jacobian"] }).jacobian = (p, geometry, t) => {
+      const columns = aquiferJacobian(Array.prototype.slice.call(p, 0, k) as number[], geometry, t);
+      const dC = new Float64Array(t.length);
+      const dn = new Float64Array(t.length);
+      const C = p[k]!;
+      const n = p[k + 1]!;
+      for (let i = 0; i < t.length; i++) {
+        const q = rateAt(steps, t[i]!);
+        if (q > 0) {
+          dC[i] = portablePow(q, n);
+          dn[i] = C * dC[i]! * Math.log(q);
+        }
+      }
+      return [...columns, dC, dn];
+    };
+  }
   return model;
 }
 
@@ -106,6 +139,8 @@ export interface StepDrawdownFitInput {
   readonly start?: Readonly<Record<string, number>>;
   /** Parameters held fixed, e.g. { n: 2 } (Jacob) or { S: 1e-4 }. */
   readonly fixed?: Readonly<Record<string, number>>;
+  /** Convergence tolerances and the evaluation budget of the fit (fitModel's options of the same names). */
+  readonly fit?: Pick<FitOptions, "ftol" | "xtol" | "gtol" | "maxEvaluations">;
 }
 
 /** Outcome of fitStepDrawdown: the fit and per-step losses at the fitted parameters. */
@@ -140,6 +175,7 @@ export function fitStepDrawdown(input: StepDrawdownFitInput): StepDrawdownFit {
     wells: [{ name: "pumped well", geometry, t: input.t, s: input.s }],
     start: { C: 1e-7, n: 2, ...(input.start ?? {}) },
     ...(input.fixed ? { fixed: input.fixed } : {}),
+    ...(input.fit ?? {}),
   });
   const values = fit.parameters.map((q) => q.estimate);
   const k = input.aquifer.parameters.length;
@@ -147,7 +183,7 @@ export function fitStepDrawdown(input: StepDrawdownFitInput): StepDrawdownFit {
   const steps = input.steps.map((step, i) => {
     const end = i + 1 < input.steps.length ? input.steps[i + 1]!.start : Math.max(...Array.from(input.t));
     const aquiferLoss = aquiferOnly.drawdown(values.slice(0, k), geometry, [end])[0]!;
-    const wellLoss = step.rate > 0 ? values[k]! * Math.pow(step.rate, values[k + 1]!) : 0;
+    const wellLoss = step.rate > 0 ? values[k]! * portablePow(step.rate, values[k + 1]!) : 0;
     return { rate: step.rate, end, aquiferLoss, wellLoss, efficiency: aquiferLoss / (aquiferLoss + wellLoss) };
   });
   return { fit, wellLossUnit: wellLossCoefficientUnit(values[k + 1]!), steps };

@@ -100,7 +100,8 @@ export function shiftTimes(changes: RateChanges, t: ArrayLike<number>): ShiftedT
 /**
  * Adds factor * sum_i dQ_i s1(r, t - t_i) (m) into `out`, and, when `jacobianOut` is given, the same sum of the
  * unit-rate Jacobian columns (m per base unit of each parameter). `r` in m, times in d (given through `shifted`,
- * from shiftTimes, or as t). Times that are NaN give NaN.
+ * from shiftTimes, or as t). Times that are NaN give NaN. `offset` (m), the position of the observation point
+ * relative to the well, reaches models whose drawdown depends on direction as geometry.x and geometry.y.
  */
 export function addScheduleResponse(
   model: DrawdownModel,
@@ -111,9 +112,10 @@ export function addScheduleResponse(
   t: ArrayLike<number> | ShiftedTimes,
   out: Float64Array,
   jacobianOut?: Float64Array[],
+  offset?: { readonly x: number; readonly y: number },
 ): void {
   const shifted = isShifted(t) ? t : shiftTimes(changes, t);
-  const unit: ObservationGeometry = { r, Q: 1 };
+  const unit: ObservationGeometry = offset === undefined ? { r, Q: 1 } : { r, Q: 1, x: offset.x, y: offset.y };
   for (let k = 0; k < changes.start.length; k++) {
     const tau = shifted.tau[k]!;
     if (tau.length === 0) continue;
@@ -155,10 +157,18 @@ export function checkDistance(where: string, r: number): void {
   }
 }
 
-/** Checks a base model: it needs drawdown() and parameters. */
+/**
+ * Checks a base model: it needs drawdown() and parameters, and its output must be a drawdown that superposition
+ * may add up (not, for example, a slug test's normalized head; see ModelDescriptor.notSuperposable).
+ */
 export function checkBaseModel(where: string, model: DrawdownModel | undefined): asserts model is DrawdownModel {
   if (!model || typeof model.drawdown !== "function" || !Array.isArray(model.parameters)) {
     throw new SuperpositionInputError(`${where}: the base model is missing or is not a drawdown model (it needs parameters and drawdown()).`);
+  }
+  if (typeof model.notSuperposable === "string") {
+    throw new SuperpositionInputError(
+      `${where}: model "${model.id}" cannot be superposed over rate changes, wells or boundaries: ${model.notSuperposable}`,
+    );
   }
 }
 
@@ -173,6 +183,7 @@ export function withRateSchedule(model: DrawdownModel, steps: readonly PumpingSt
   const where = "withRateSchedule";
   checkBaseModel(where, model);
   const changes = rateChanges(steps, where);
+  const directional = model.directional === true;
   const schedule = steps.map((s) => `${s.rate} m3/d from ${s.start} d`).join(", ");
   const wrapped: DrawdownModel = {
     id: `${model.id}+schedule`,
@@ -192,18 +203,24 @@ export function withRateSchedule(model: DrawdownModel, steps: readonly PumpingSt
     drawdown(p, geometry, t, out) {
       checkDistance(wrapped.name, geometry.r);
       const result = outputFor(wrapped.name, t.length, out);
-      addScheduleResponse(model, p, geometry.r, changes, 1, t, result);
+      addScheduleResponse(model, p, geometry.r, changes, 1, t, result, undefined, directional ? offsetOf(geometry) : undefined);
       return result;
     },
   };
+  if (directional) (wrapped as { directional?: boolean }).directional = true;
   if (typeof model.jacobian === "function") {
     wrapped.jacobian = (p, geometry, t) => {
       checkDistance(wrapped.name, geometry.r);
       const columns = model.parameters.map(() => new Float64Array(t.length));
       const scratch = new Float64Array(t.length);
-      addScheduleResponse(model, p, geometry.r, changes, 1, t, scratch, columns);
+      addScheduleResponse(model, p, geometry.r, changes, 1, t, scratch, columns, directional ? offsetOf(geometry) : undefined);
       return columns;
     };
   }
   return wrapped;
+}
+
+/** The plan position of an observation point relative to its well (m) when the geometry gives one. */
+function offsetOf(geometry: ObservationGeometry): { x: number; y: number } | undefined {
+  return Number.isFinite(geometry.x) && Number.isFinite(geometry.y) ? { x: geometry.x!, y: geometry.y! } : undefined;
 }

@@ -117,6 +117,15 @@ export function evaluateScheme(
   out?: Float64Array,
 ): SchemeEvaluation {
   if (!isFinitePoint(point)) throw new SuperpositionInputError(`${where}: the observation point needs finite x and y (m).`);
+  if (typeof model.notSuperposable === "string") {
+    throw new SuperpositionInputError(`${where}: model "${model.id}" cannot be superposed over rate changes, wells or boundaries: ${model.notSuperposable}`);
+  }
+  if (model.directional === true && scheme.boundaries.length > 0) {
+    throw new SuperpositionInputError(
+      `${where}: model "${model.id}" depends on the direction from the well, and image wells for it are not implemented ` +
+        "(an image of an anisotropic aquifer or of a fracture is mirrored as well); forecast it without boundaries.",
+    );
+  }
   checkBoundaries(where, scheme.boundaries, [], [{ name: "observation", point }]);
   if (withJacobian && typeof model.jacobian !== "function") {
     throw new SuperpositionInputError(`${where}: model "${model.id}" has no analytic Jacobian.`);
@@ -137,7 +146,8 @@ export function evaluateScheme(
     const r = sourceDistance(where, wellName, source, point, isReal);
     term.fill(0);
     if (termJacobian) for (const c of termJacobian) c.fill(0);
-    addScheduleResponse(model, p, r, changes, sign, shifted.get(changes)!, term, termJacobian);
+    const offset = model.directional === true ? { x: point.x - source.x, y: point.y - source.y } : undefined;
+    addScheduleResponse(model, p, r, changes, sign, shifted.get(changes)!, term, termJacobian, offset);
     for (let i = 0; i < n; i++) {
       s[i]! += term[i]!;
       magnitude[i]! += Math.abs(term[i]!);

@@ -4,7 +4,7 @@
  * used. A method is found by the library call in the code (`aq.fitModel`, `aq.bourdetDerivative`, ...) or, for
  * a model, by its id quoted in the code ("theis", "hantush-jacob"), and cited from the model registry.
  */
-import { getModel, modelIds } from "@conebook/aquifer";
+import { describeModel, getModel, modelIds } from "@conebook/aquifer";
 import type { ConebookDocument } from "@conebook/document";
 
 /** One entry of the list. */
@@ -126,8 +126,8 @@ export function methodSources(doc: ConebookDocument): MethodSource[] {
   const code = doc.cells.filter((c) => c.kind === "code").map((c) => c.source).join("\n");
   const out: MethodSource[] = [];
   for (const id of modelIds) {
-    if (!new RegExp(`["'\`]${id}["'\`]`).test(code)) continue;
-    const model = getModel(id);
+    if (!new RegExp(`["'\`]${id.replace(/[+]/g, "\\+")}["'\`]`).test(code)) continue;
+    const model = describeModel(id);
     out.push({ method: model.name, citation: model.source, kind: "published" });
   }
   for (const { call, sources } of BY_CALL) {

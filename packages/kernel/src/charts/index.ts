@@ -6,3 +6,6 @@ export { residualsChart, type ResidualsInput } from "./residuals.js";
 export { recoveryChart, type RecoveryInput } from "./recovery.js";
 export { distanceDrawdownChart, type DistanceDrawdownInput } from "./distance-drawdown.js";
 export { stepTestChart, type StepTestInput } from "./step-test.js";
+export { specialisedPlotChart, type SpecialisedPlotInput } from "./specialised-plot.js";
+export { slugResponseChart, type SlugResponseInput } from "./slug-response.js";
+export { anisotropyEllipseChart, type AnisotropyEllipseInput } from "./anisotropy-ellipse.js";

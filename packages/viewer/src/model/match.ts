@@ -39,18 +39,29 @@ export interface ObservationRecord {
   s: Float64Array;
 }
 
-/** How a drag moves a parameter: by 1/a (transmissivity), by b/a (storage), or not at all. */
-export type ParameterRole = "transmissivity" | "storage" | "shape";
+/** How a drag moves a parameter: by 1/a (transmissivity), by b/a (storage), by 1/b (rate), or not at all. */
+export type ParameterRole = "transmissivity" | "storage" | "rate" | "shape";
 
 /**
  * The role of each parameter of `model` in a drag. A drag that multiplies drawdown by a and time by b maps
  * s(t) to a s(t / b); for every model whose dimensionless drawdown depends on T and S only through
  * Q / (4 pi T) and T t / (r^2 S) (with other dimensionless groups such as r/B, S/Sy, Sa/S and Kz/Kr held),
- * that is T -> T / a and each storage parameter -> S b / a. Transmissivity is the parameter in m2/d; storage
- * parameters are the dimensionless ones labelled storativity, specific yield or storage.
+ * that is T -> T / a and each storage parameter -> S b / a; a rate constant (1/d, Boulton's alpha, a block
+ * exchange rate) keeps its product with time, -> alpha / b. Transmissivity is the parameter in m2/d (both
+ * principal values of an anisotropic aquifer); a hydraulic conductivity in m/d stands in for it where a model
+ * has no T (Dupuit-Thiem, where the drag is exact only while drawdown is small against the saturated
+ * thickness). Storage parameters are the dimensionless ones labelled storativity, specific yield or storage.
  */
 export function parameterRoles(model: DrawdownModel): ParameterRole[] {
-  return model.parameters.map((p) => (p.unit === "m2/d" ? "transmissivity" : p.unit === "1" && /storativ|yield|storage/i.test(p.label) ? "storage" : "shape"));
+  return model.parameters.map((p) =>
+    p.unit === "m2/d" || p.unit === "m/d"
+      ? "transmissivity"
+      : p.unit === "1" && /storativ|yield|storage/i.test(p.label)
+        ? "storage"
+        : p.unit === "1/d"
+          ? "rate"
+          : "shape",
+  );
 }
 
 /**
@@ -63,7 +74,7 @@ export function shiftParameters(model: DrawdownModel, values: ArrayLike<number>,
   const roles = parameterRoles(model);
   return Float64Array.from(values, (v, i) => {
     const [lo, hi] = model.parameters[i]!.bounds;
-    const next = roles[i] === "transmissivity" ? v / a : roles[i] === "storage" ? (v * b) / a : v;
+    const next = roles[i] === "transmissivity" ? v / a : roles[i] === "storage" ? (v * b) / a : roles[i] === "rate" ? v / b : v;
     return Math.min(hi, Math.max(lo, next));
   });
 }
