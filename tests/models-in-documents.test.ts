@@ -58,6 +58,10 @@ const cases: Record<string, Case> = {
     spec: "hantush-aquitard-storage", truth: { T: 250, S: 2e-4, B: 600, Sa: 1e-3 }, wells: [{ name: "OB-1", r: 30 }, { name: "OB-2", r: 90 }], Q: 900,
     times: log(1e-3, 3, 30), start: { T: 400, S: 1e-4, B: 1000, Sa: 3e-3 }, tolerance: 1e-3,
   },
+  "theis-barrier-image": {
+    spec: "theis-barrier-image", truth: { T: 520, S: 1.8e-4, ri: 504 }, wells: [{ name: "OB-1", r: 45 }], Q: 1600, times: log(1e-3, 3, 30),
+    start: { T: 300, S: 4e-4, ri: 300 }, tolerance: 1e-5,
+  },
   thiem: { spec: "thiem", truth: { T: 250, R: 800 }, wells: [{ name: "OB-1", r: 30 }, { name: "OB-2", r: 120 }], Q: 900, times: [1, 2, 3], steady: true, tolerance: 1e-6 },
   neuman: {
     spec: { id: "neuman", saturatedThickness: 20 }, truth: { T: 250, S: 1e-3, Sy: 0.12, KzKr: 0.3 }, wells: [{ name: "OB-1", r: 15 }], Q: 900,

@@ -78,6 +78,8 @@ beforeAll(async () => {
     "--set",
     "site=Hollin Marsh (invented)",
     "--set",
+    "pumped_well=HM-PW2",
+    "--set",
     "observation_well=HM-OB3",
     "--data",
     `obs=${join(ROOT, "tests/fixtures/report/hollin-marsh-hm-ob3.csv")}`,

@@ -302,6 +302,7 @@ describe("the template form", () => {
     await form.locator("#param-distance").fill("40");
     await form.locator("#param-static_depth").fill("8.72");
     await form.locator("#param-site").fill("Tern Gap (invented)");
+    await form.locator("#param-pumped_well").fill("TG-PW1");
     await form.locator("#param-observation_well").fill("TG-OB2");
     await form.locator('input[type="file"]').setInputFiles(csvPath);
     await form.locator("#info-analyst").fill("P. Q. Hydro (invented)");
@@ -309,7 +310,7 @@ describe("the template form", () => {
     await form.locator("#out-path").fill(out);
   }
 
-  const CLI_SETS = ["--set", "rate=12 L/s", "--set", "distance=40", "--set", "static_depth=8.72", "--set", "duration=2880", "--set", "site=Tern Gap (invented)", "--set", "observation_well=TG-OB2"];
+  const CLI_SETS = ["--set", "rate=12 L/s", "--set", "distance=40", "--set", "static_depth=8.72", "--set", "duration=1440", "--set", "site=Tern Gap (invented)", "--set", "pumped_well=TG-PW1", "--set", "observation_well=TG-OB2"];
   const CLI_REST = ["--info", "analyst=P. Q. Hydro (invented)", "--title", "Constant-rate test at Tern Gap, TG-OB2 (invented)"];
 
   it("makes the document conebook new writes from the same values, byte for byte, and keeps no demonstration value unconfirmed", async () => {

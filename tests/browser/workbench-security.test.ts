@@ -233,7 +233,16 @@ const EVERY_NOTEBOOK = [
   "ketterby-heath-partial-penetration.cone.md",
   "pennock-mill-step-test.cone.md",
   "scarrow-flats-water-table.cone.md",
+  "templates/barrier-boundary-test.cone.md",
   "templates/constant-rate-test.cone.md",
+  "templates/leaky-aquifer-test.cone.md",
+  "templates/multi-well-test.cone.md",
+  "templates/pumped-well-storage-skin.cone.md",
+  "templates/raw-logger-import.cone.md",
+  "templates/recovery-test.cone.md",
+  "templates/slug-test.cone.md",
+  "templates/step-drawdown-test.cone.md",
+  "templates/unconfined-aquifer-test.cone.md",
   "tollin-brook-dupuit-thiem.cone.md",
 ];
 

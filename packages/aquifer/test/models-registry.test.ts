@@ -25,7 +25,7 @@ describe("model registry and descriptors", () => {
       "boulton", "cooper-jacob", "dougherty-babu", "dupuit-thiem", "gringarten-fracture", "hantush-aquitard-storage", "hantush-jacob",
       "hantush-leaky-partial-penetration", "hantush-partial-penetration", "jacob-lohman", "kgs-slug", "moench-double-porosity",
       "moench-water-table", "neuman", "neuman-partial-penetration", "papadopulos-anisotropy", "papadopulos-cooper",
-      "papadopulos-cooper+well-loss", "theis", "theis+well-loss", "thiem", "underdamped-slug",
+      "papadopulos-cooper+well-loss", "theis", "theis+well-loss", "theis-barrier-image", "thiem", "underdamped-slug",
     ]);
     expect(getModel("theis")).toBe(theisModel);
     expect(getModel("cooper-jacob")).toBe(cooperJacobModel);
@@ -37,7 +37,7 @@ describe("model registry and descriptors", () => {
   it("names the known ids when asked for an unknown one", () => {
     expect(() => getModel("theiss")).toThrow(UnknownModelError);
     expect(() => getModel("theiss")).toThrow(
-      'Unknown model "theiss". Known models: theis, cooper-jacob, hantush-jacob, hantush-aquitard-storage, thiem, boulton, papadopulos-anisotropy, ' +
+      'Unknown model "theiss". Known models: theis, cooper-jacob, hantush-jacob, hantush-aquitard-storage, thiem, boulton, papadopulos-anisotropy, theis-barrier-image, ' +
         "neuman, papadopulos-cooper, hantush-partial-penetration, hantush-leaky-partial-penetration, dougherty-babu, moench-water-table, " +
         "neuman-partial-penetration, moench-double-porosity, dupuit-thiem, gringarten-fracture, jacob-lohman, kgs-slug, underdamped-slug, " +
         "theis+well-loss, papadopulos-cooper+well-loss.",

@@ -113,26 +113,26 @@ describe("conebook new from a template with demonstration values", () => {
     await writeFile(join(dir, "readings.csv"), READINGS);
     const out = await conebook("new", TEMPLATE.pathname, "-o", "tg.cone.md", "--set", "static_depth=8.72", "--data", "obs=readings.csv");
     expect(out.code).toBe(2);
-    for (const name of ["rate", "distance", "site", "observation_well"]) expect(out.stderr).toContain(`parameter "${name}"`);
-    expect(out.stderr).toMatch(/constant-rate-test\.cone\.md:9:\d+: parameter "rate" \(m3\/d\) must be given: the template's 1450 is its demonstration value; add --set rate=VALUE/);
+    for (const name of ["rate", "distance", "site", "pumped_well", "observation_well"]) expect(out.stderr).toContain(`parameter "${name}"`);
+    expect(out.stderr).toMatch(/constant-rate-test\.cone\.md:9:\d+: parameter "rate" \(m3\/d\) must be given: the template's 1150 is its demonstration value; add --set rate=VALUE/);
     expect(out.stderr).not.toContain('parameter "static_depth" (m) must');
   });
 
   it("fills the title and narrative placeholders, leaves out the template's own cells and states each kept default", async () => {
     const out = await conebook(
       "new", TEMPLATE.pathname, "-o", "tg2.cone.md", "--data", "obs=readings.csv",
-      "--set", "static_depth=8.72", "--set", "rate=250 m3/d", "--set", "distance=15", "--set", "site=Tarn Gill", "--set", "observation_well=TG-OB2",
+      "--set", "static_depth=8.72", "--set", "rate=250 m3/d", "--set", "distance=15", "--set", "site=Tarn Gill", "--set", "pumped_well=TG-PW1", "--set", "observation_well=TG-OB2",
     );
     expect(out.code, out.stderr).toBe(0);
-    expect(out.stderr).toMatch(/warning: parameter "duration" keeps the template's value 2880 min/);
+    expect(out.stderr).toMatch(/warning: parameter "duration" keeps the template's value 1440 min/);
     const text = await readFile(join(dir, "tg2.cone.md"), "utf8");
     expect(text).toMatch(/title: "?Constant-rate pumping test at Tarn Gill, observation well TG-OB2"?\n/);
-    expect(text).toContain("Observation well TG-OB2, 15 m from the pumped well, pumped at 250 m3/d for 2880 min;");
-    expect(text).not.toContain("Kestrel Moor");
+    expect(text).toContain("Pumped well TG-PW1 at 250 m3/d for 1440 min; observation well TG-OB2 at 15 m;");
+    expect(text).not.toContain("Wrenfield");
     expect(text).not.toContain("template-about");
-    expect(text).toContain("> - parameter `duration` keeps the template's value 2880 min");
+    expect(text).toContain("> - parameter `duration` keeps the template's value 1440 min");
     const titled = await conebook("new", TEMPLATE.pathname, "-o", "tg3.cone.md", "--data", "obs=readings.csv", "--title", "PW-7 test, May",
-      "--set", "static_depth=8.72", "--set", "rate=250", "--set", "distance=15", "--set", "site=Tarn Gill", "--set", "observation_well=TG-OB2", "--set", "duration=100");
+      "--set", "static_depth=8.72", "--set", "rate=250", "--set", "distance=15", "--set", "site=Tarn Gill", "--set", "pumped_well=TG-PW1", "--set", "observation_well=TG-OB2", "--set", "duration=100");
     expect(titled.code, titled.stderr).toBe(0);
     const third = await readFile(join(dir, "tg3.cone.md"), "utf8");
     expect(third).toContain("title: PW-7 test, May");

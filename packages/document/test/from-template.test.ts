@@ -10,6 +10,7 @@ const settings = [
   readTemplateSetting("distance", "40"),
   readTemplateSetting("static_depth", "8.72"),
   readTemplateSetting("site", "Tern Gap (invented)"),
+  readTemplateSetting("pumped_well", "TG-PW1"),
   readTemplateSetting("observation_well", "TG-OB2"),
   readTemplateSetting("duration", "1440"),
 ];
@@ -17,7 +18,7 @@ const base = { template, templateShown: "constant-rate-test.cone.md", outShown: 
 
 describe("documentFromTemplate (shared by conebook new and the template form)", () => {
   it("fills parameters with converted values, pins the data file and sets the test information given", () => {
-    const made = documentFromTemplate({ ...base, title: "Test at Tern Gap", info: { analyst: "P. Q. Hydro (invented)", "wells.0.name": "TG-PW1" } });
+    const made = documentFromTemplate({ ...base, title: "Test at Tern Gap", info: { analyst: "P. Q. Hydro (invented)", "wells.0.notes": "screen 40-60 m (invented)" } });
     const back = parseDocument(made.text).document;
     const rate = back.header.parameters.find((p) => p.name === "rate")!;
     // 12 L/s = 12 * 86.4 m3/d = 1036.8 m3/d (1 L = 1e-3 m3, 1 d = 86400 s).
@@ -28,8 +29,8 @@ describe("documentFromTemplate (shared by conebook new and the template form)", 
     expect(back.header.testInformation?.wells?.map((w) => w.name)).toEqual(["TG-PW1", "TG-OB2"]);
     const data = back.cells.find((c) => c.kind === "data");
     expect(data?.kind === "data" && data.file).toEqual({ path: "data/readings.csv", sha256: sha256Hex(utf8Bytes(CSV)) });
-    expect(made.text).toContain("and analyst, wells.0.name given; replace it with this test's");
-    expect(made.warnings).toEqual(['constant-rate-test.cone.md:45: warning: the test information in the header is the template\'s; replace it with this test\'s']);
+    expect(made.text).toContain("and analyst, wells.0.notes given; replace it with this test's");
+    expect(made.warnings).toEqual(['constant-rate-test.cone.md:48: warning: the test information in the header is the template\'s; replace it with this test\'s']);
   });
 
   it("refuses a required parameter left out, an unknown test information field, and a file without the slot's columns", () => {

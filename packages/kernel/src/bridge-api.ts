@@ -11,6 +11,7 @@
 import { hostCheckpoint } from "./host-budget.js";
 import {
   agarwalEquivalentTime,
+  barrierDistanceFromImage,
   boundariesFromRecords,
   bouwerRiceSlugTest,
   cbpNormalizedHead,
@@ -136,6 +137,7 @@ import {
 } from "./validators.js";
 import { anisotropyEllipseChart, slugResponseChart, specialisedPlotChart } from "./charts/index.js";
 import {
+  curvesChart,
   distanceDrawdownChart,
   logLogDrawdownChart,
   recoveryChart,
@@ -879,6 +881,11 @@ export const AQUIFER_API: Readonly<Record<string, BridgeEntry>> = {
     [arg("tp", positive), arg("sAtStop", finite), arg("dt", samples), arg("residual", samples)],
     (tp, sAtStop, dt, residual) => recoveryAsDrawdown(tp, sAtStop, dt, residual),
   ),
+  "aq.barrierDistanceFromImage": fn(
+    "Perpendicular distance (m) from a pumping well at the origin to a barrier whose normal points at angle (deg from +x), from the observation point (x, y) (m) and the fitted image distance ri (m); NaN when none",
+    [arg("x", finite), arg("y", finite), arg("angle", finite), arg("ri", positive)],
+    (x, y, angle, ri) => barrierDistanceFromImage(x, y, angle, ri),
+  ),
   "aq.cooperJacobDistance": fn(
     "Cooper-Jacob distance-drawdown line { r (m), s (m), Q (m3/d), t (d), uMax? }: T (m2/d), S, slope per log cycle, r0",
     [arg("input", recordArg({ r: samples, s: samples, Q: finite, t: positive, uMax: optional(positive) }))],
@@ -1057,6 +1064,15 @@ export const CHART_API: Readonly<Record<string, BridgeEntry>> = {
     "Distance-drawdown plot { r, s, line?: { slope, r0 }, lengthUnit?, title? }",
     [arg("input", recordArg({ r: values, s: values, line: optional(recordArg({ slope: finite, r0: positive })), lengthUnit: text, title: text }))],
     (input) => distanceDrawdownChart(input),
+  ),
+  "charts.curves": fn(
+    "Several named series of points or lines { series: [{ label, x, y, mark? }], xTitle, yTitle, xScale?, yScale?, title? }, each axis 'log' (default) or 'linear'",
+    [arg("input", recordArg({
+      series: arrayOf(recordArg({ label: stringArg(), x: values, y: values, mark: optional(stringArg(["point", "line"])) }), 1),
+      xTitle: stringArg(), yTitle: stringArg(),
+      xScale: optional(stringArg(["log", "linear"])), yScale: optional(stringArg(["log", "linear"])), title: text,
+    }))],
+    (input) => curvesChart(input),
   ),
   "charts.stepTest": fn(
     "Step-drawdown plot of sw/Q against Q { Q, sw, line?: { B, C }, rateUnit?, lengthUnit?, title? }",

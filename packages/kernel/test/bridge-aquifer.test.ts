@@ -184,7 +184,7 @@ describe("models and fitting called from a cell", () => {
 
   it("refuses an unknown model id and a well without distance and rate, saying what to give", async () => {
     expect(await errorOf("aq.fitModel({ model: 'theiss', wells: [base1] })")).toBe(
-      'TypeError: aq.fitModel: argument 1 (options), field "model": Unknown model "theiss". Known models: theis, cooper-jacob, hantush-jacob, hantush-aquitard-storage, thiem, boulton, papadopulos-anisotropy, neuman, papadopulos-cooper, ' +
+      'TypeError: aq.fitModel: argument 1 (options), field "model": Unknown model "theiss". Known models: theis, cooper-jacob, hantush-jacob, hantush-aquitard-storage, thiem, boulton, papadopulos-anisotropy, theis-barrier-image, neuman, papadopulos-cooper, ' +
         "hantush-partial-penetration, hantush-leaky-partial-penetration, dougherty-babu, moench-water-table, neuman-partial-penetration, moench-double-porosity, " +
         "dupuit-thiem, gringarten-fracture, jacob-lohman, kgs-slug, underdamped-slug, theis+well-loss, papadopulos-cooper+well-loss.",
     );

@@ -45,4 +45,21 @@ describe("data cells and chart cells", () => {
     if (c.type !== "chart") throw new Error("expected a chart");
     expect(c.summary.datasets[0]).toMatchObject({ rows: 2, fields: [{ name: "t", min: 1, max: 10 }, { name: "s", min: 0.1, max: 0.5 }, { name: "series" }] });
   });
+
+  it("draws several named series of points and lines, leaving out what a log axis cannot show", async () => {
+    const r = await kernel.runDocument(makeDoc([
+      `charts.curves({ series: [{ label: "OB-1", x: [1e-3, 1e-2, 0], y: [0.2, 0.5, 0.7] }, { label: "Theis", x: [1e-3, 1e-1], y: [0.21, 0.9], mark: "line" }], xTitle: "t/r2 (min/m2)", yTitle: "drawdown (m)", title: "Composite" })`,
+      `charts.curves({ series: [{ label: "H/H0", x: [0, 10, 20], y: [1, 0.4, -0.01] }], xTitle: "time (s)", yTitle: "H/H0", xScale: "linear" })`,
+      `charts.curves({ series: [{ label: "a", x: [1], y: [1] }, { label: "a", x: [2], y: [2] }], xTitle: "x", yTitle: "y" })`,
+    ]));
+    const [composite, slug] = [r.outputs.c1![0]!, r.outputs.c2![0]!];
+    if (composite.type !== "chart" || slug.type !== "chart") throw new Error("expected charts");
+    expect(composite.summary.datasets.map((d) => d.rows)).toEqual([2, 2]);
+    const layers = (composite.spec as { layer: { mark: { type: string }; encoding: { x: { scale: { type: string } } } }[] }).layer;
+    expect(layers.map((l) => [l.mark.type, l.encoding.x.scale.type])).toEqual([["point", "log"], ["line", "log"]]);
+    // A linear time axis keeps t = 0; the log H/H0 axis drops the negative reading.
+    expect(slug.summary.datasets[0]).toMatchObject({ rows: 2, fields: [{ name: "x", min: 0, max: 10 }, { name: "y", min: 0.4, max: 1 }, { name: "series" }] });
+    const e = r.outputs.c3![0]!;
+    expect(e.type === "error" && e.message).toContain('repeats the label "a"');
+  });
 });

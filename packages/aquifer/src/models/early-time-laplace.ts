@@ -15,16 +15,17 @@
  */
 import { besselK0Complex, cadd, cdiv, cexp, clog, cmul, complex, cscale, csqrt, csub, type Complex } from "../numerics/index.js";
 import { neumanRoot } from "./neuman-laplace.js";
+import { portableCos, portableSin } from "../numerics/portable-math.js";
 
 const I = complex(0, 1);
 const ONE = complex(1);
 
 function csin(z: Complex): Complex {
-  return complex(Math.sin(z.re) * Math.cosh(z.im), Math.cos(z.re) * Math.sinh(z.im));
+  return complex(portableSin(z.re) * Math.cosh(z.im), portableCos(z.re) * Math.sinh(z.im));
 }
 
 function ccos(z: Complex): Complex {
-  return complex(Math.cos(z.re) * Math.cosh(z.im), -Math.sin(z.re) * Math.sinh(z.im));
+  return complex(portableCos(z.re) * Math.cosh(z.im), -portableSin(z.re) * Math.sinh(z.im));
 }
 
 /** atan z = (i/2) ln((1 - i z)/(1 + i z)) (principal branch, DLMF 4.23.26). */

@@ -5,6 +5,7 @@ export type { DrawdownModel, ModelDescriptor, ObservationGeometry, ParameterDesc
 export { ModelInputError, UnknownModelError } from "./errors.js";
 export { storativityParameter, transmissivityParameter } from "./parameters.js";
 export { theisDrawdown, theisModel, theisTypeCurve, type TheisTypeCurve } from "./theis.js";
+export { barrierDistanceFromImage, imageDistanceParameter, theisBarrierImageModel } from "./theis-barrier-image.js";
 export {
   COOPER_JACOB_DEFAULT_U_MAX,
   cooperJacobLine,

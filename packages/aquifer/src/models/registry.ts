@@ -28,6 +28,7 @@ import { papadopulosAnisotropyModel } from "./papadopulos-anisotropy.js";
 import { papadopulosCooperModel } from "./papadopulos-cooper.js";
 import { partialPenetrationModel, type PenetrationObservation } from "./partial-penetration.js";
 import { theisModel } from "./theis.js";
+import { theisBarrierImageModel } from "./theis-barrier-image.js";
 import { thiemModel } from "./thiem.js";
 
 /** Ids of the models whose geometry is fixed by { r, Q } (and, for the directional ones, x and y) alone. */
@@ -38,7 +39,8 @@ export type FixedModelId =
   | "hantush-aquitard-storage"
   | "thiem"
   | "boulton"
-  | "papadopulos-anisotropy";
+  | "papadopulos-anisotropy"
+  | "theis-barrier-image";
 /** Ids of the models bound to well or aquifer geometry given as options. */
 export type GeometryModelId =
   | "neuman"
@@ -115,6 +117,7 @@ export const models: Readonly<Record<FixedModelId, DrawdownModel>> = Object.free
   thiem: thiemModel,
   boulton: boultonModel,
   "papadopulos-anisotropy": papadopulosAnisotropyModel,
+  "theis-barrier-image": theisBarrierImageModel,
 });
 
 type Described = Omit<ModelOptionDescriptor, "name" | "unit" | "required" | "description" | "default">;

@@ -3,6 +3,8 @@
  * `{ re, im }` so they cross any boundary as data; every operation returns a new record.
  */
 
+import { portableCos, portableSin } from "./portable-math.js";
+
 /** A complex number re + i im. */
 export interface Complex {
   readonly re: number;
@@ -59,7 +61,7 @@ export function carg(a: Complex): number {
 /** e^a. */
 export function cexp(a: Complex): Complex {
   const m = Math.exp(a.re);
-  return { re: m * Math.cos(a.im), im: m * Math.sin(a.im) };
+  return { re: m * portableCos(a.im), im: m * portableSin(a.im) };
 }
 
 /** Principal natural logarithm ln|a| + i arg a. */

@@ -1,5 +1,6 @@
 import type { Complex } from "./complex.js";
 import { cadd, cdiv, cmul, complex, cscale, csqrt, csub } from "./complex.js";
+import { portableCos, portableSin } from "./portable-math.js";
 
 /** Options of `deHoog`. */
 export interface DeHoogOptions {
@@ -61,7 +62,7 @@ export function deHoog(F: (p: Complex) => Complex, t: number, options: DeHoogOpt
 
   // Quotient-difference table: q[r][i], e[r][i] for column r.
   const d = continuedFractionCoefficients(a, m);
-  const z = complex(Math.cos((Math.PI * t) / period), Math.sin((Math.PI * t) / period));
+  const z = complex(portableCos((Math.PI * t) / period), portableSin((Math.PI * t) / period));
 
   // Recurrences A_{n+1} = A_n + d_n z A_{n-1}, B likewise, for n = 1..2M−1.
   let aPrev: Complex = complex(0);

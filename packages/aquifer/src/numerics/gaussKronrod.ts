@@ -4,6 +4,8 @@
  * degree <= 22, the embedded Gauss rule for degree <= 13 (checked in numerics-quadrature.test.ts).
  */
 
+import { portablePow } from "./portable-math.js";
+
 /** Kronrod nodes in [0, 1), largest first; the odd-indexed ones (1, 3, 5) are the Gauss nodes, 7 is the centre. */
 export const KRONROD15_NODES: readonly number[] = [
   0.991455371120812639206854697526329, 0.949107912342758524526189684047851, 0.864864423359769072789712788640926,
@@ -98,7 +100,7 @@ function evaluate(f: (x: number) => number, x: number): number {
 export function kronrodErrorEstimate(panel: KronrodPanel): number {
   let err = Math.abs(panel.kronrod - panel.gauss);
   if (panel.meanDeviation !== 0 && err !== 0) {
-    err = panel.meanDeviation * Math.min(1, Math.pow((200 * err) / panel.meanDeviation, 1.5));
+    err = panel.meanDeviation * Math.min(1, portablePow((200 * err) / panel.meanDeviation, 1.5));
   }
   const floor = 50 * Number.EPSILON * panel.absIntegral;
   return Math.max(err, floor);

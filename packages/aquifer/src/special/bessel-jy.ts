@@ -19,6 +19,8 @@
  * method keeps a relative bound without knowing the zero to extra precision). "Not small": |f| >= 1e-3 M(x).
  */
 
+import { portableCos, portableSin } from "../numerics/portable-math.js";
+
 // 17 terms; first dropped coefficient -1.74e-19
 const J0_SMALL = [
   1.5772797147489012e-1, -8.7234423528522213e-3, 2.6517861320333681e-1, -3.7009499387264978e-1,
@@ -119,8 +121,8 @@ export function besselJ0(x: number): number {
   if (ax <= CUT) return chebyshev(J0_SMALL, (ax * ax) / 32 - 1);
   if (ax === Infinity) return 0;
   const [p, q, amplitude] = hankelParts(ax, P0_LARGE, Q0_LARGE);
-  const c = Math.cos(ax);
-  const s = Math.sin(ax);
+  const c = portableCos(ax);
+  const s = portableSin(ax);
   // chi = x - pi/4: cos(chi) = (c + s)/sqrt2, sin(chi) = (s - c)/sqrt2.
   return amplitude * SQRT_HALF * (p * (c + s) - q * (s - c));
 }
@@ -138,8 +140,8 @@ export function besselJ1(x: number): number {
     v = 0;
   } else {
     const [p, q, amplitude] = hankelParts(ax, P1_LARGE, Q1_LARGE);
-    const c = Math.cos(ax);
-    const s = Math.sin(ax);
+    const c = portableCos(ax);
+    const s = portableSin(ax);
     // chi = x - 3pi/4: cos(chi) = (s - c)/sqrt2, sin(chi) = -(s + c)/sqrt2.
     v = amplitude * SQRT_HALF * (p * (s - c) + q * (s + c));
   }
@@ -160,8 +162,8 @@ export function besselY0(x: number): number {
   }
   if (x === Infinity) return 0;
   const [p, q, amplitude] = hankelParts(x, P0_LARGE, Q0_LARGE);
-  const c = Math.cos(x);
-  const s = Math.sin(x);
+  const c = portableCos(x);
+  const s = portableSin(x);
   return amplitude * SQRT_HALF * (p * (s - c) + q * (c + s));
 }
 
@@ -180,8 +182,8 @@ export function besselY1(x: number): number {
   }
   if (x === Infinity) return 0;
   const [p, q, amplitude] = hankelParts(x, P1_LARGE, Q1_LARGE);
-  const c = Math.cos(x);
-  const s = Math.sin(x);
+  const c = portableCos(x);
+  const s = portableSin(x);
   // Y1 = A [P sin(chi) + Q cos(chi)], chi = x - 3pi/4.
   return amplitude * SQRT_HALF * (-p * (s + c) + q * (s - c));
 }

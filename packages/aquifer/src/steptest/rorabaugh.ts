@@ -20,6 +20,7 @@ import { stepsToBaseUnits } from "./step-data.js";
 import { stepPerformance, wellLossCoefficientUnit } from "./step-performance.js";
 import type { StepTestParameter, StepTestResult } from "./step-result.js";
 import { waltonWellCondition } from "./well-condition.js";
+import { portablePow } from "../numerics/portable-math.js";
 
 /** Settings of rorabaughStepTest: bounds and starting value of the well-loss exponent n (dimensionless). */
 export interface RorabaughOptions {
@@ -47,11 +48,11 @@ export function rorabaughStepTest(input: StepDrawdownInput, options: RorabaughOp
     residualCount: N,
     parameterCount: 3,
     residuals(x, out) {
-      for (let i = 0; i < N; i++) out[i] = x[0]! * q[i]! + x[1]! * Math.pow(q[i]!, x[2]!) - s[i]!;
+      for (let i = 0; i < N; i++) out[i] = x[0]! * q[i]! + x[1]! * portablePow(q[i]!, x[2]!) - s[i]!;
     },
     jacobian(x, out) {
       for (let i = 0; i < N; i++) {
-        const qn = Math.pow(q[i]!, x[2]!);
+        const qn = portablePow(q[i]!, x[2]!);
         out[i] = q[i]!;
         out[N + i] = qn;
         out[2 * N + i] = x[1]! * qn * Math.log(q[i]!);
@@ -65,7 +66,7 @@ export function rorabaughStepTest(input: StepDrawdownInput, options: RorabaughOp
   });
   const [b, c, n] = [lm.x[0]!, lm.x[1]!, lm.x[2]!];
   const B = b / qm;
-  const C = c * Math.pow(qm, -n);
+  const C = c * portablePow(qm, -n);
   const dof = N - 3;
   let se: (number | null)[] = [null, null, null];
   let t: number | null = null;
@@ -73,7 +74,7 @@ export function rorabaughStepTest(input: StepDrawdownInput, options: RorabaughOp
     const cov = fitSpaceCovariance(lm.jacobian, N, 3, lm.ssr / dof).covariance;
     const g = [
       [1 / qm, 0, 0],
-      [0, Math.pow(qm, -n), -C * Math.log(qm)],
+      [0, portablePow(qm, -n), -C * Math.log(qm)],
       [0, 0, 1],
     ];
     se = g.map((row) => {
@@ -125,8 +126,8 @@ export function rorabaughStepTest(input: StepDrawdownInput, options: RorabaughOp
 function startValues(Q: Float64Array, s: Float64Array, qm: number, n0: number, lo: number, hi: number): Float64Array {
   const n = Math.min(Math.max(n0, lo), hi);
   const line = fitStraightLine(
-    Q.map((v) => Math.pow(v, n - 1)),
+    Q.map((v) => portablePow(v, n - 1)),
     Q.map((v, i) => s[i]! / v),
   );
-  return new Float64Array([line.intercept * qm, line.slope * Math.pow(qm, n), n]);
+  return new Float64Array([line.intercept * qm, line.slope * portablePow(qm, n), n]);
 }

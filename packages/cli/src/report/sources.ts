@@ -110,6 +110,111 @@ const BY_CALL: readonly { call: RegExp; sources: MethodSource[] }[] = [
     ],
   },
   {
+    call: /\baq\.theisRecoveryLine\b/,
+    sources: [
+      { method: "Theis recovery: residual drawdown against log t/t'", citation: getModel("theis").source, kind: "published" },
+      {
+        method: "Recovery points used only where u' ≤ 0.01",
+        citation: "common practice: the straight line of residual drawdown holds only where u' is small, as the Cooper-Jacob line does.",
+        kind: "common practice",
+      },
+    ],
+  },
+  {
+    call: /\baq\.recoveryAsDrawdown\b|\baq\.agarwalEquivalentTime\b/,
+    sources: [
+      {
+        method: "Recovery at equivalent time te = tp t'/(tp + t')",
+        citation: "Agarwal, R.G. (1980). A new method to account for producing time effects when drawdown type curves are used to analyze pressure buildup and other test data. SPE paper 9289.",
+        kind: "published",
+      },
+    ],
+  },
+  {
+    call: /\baq\.jacobStepTest\b/,
+    sources: [
+      {
+        method: "Step-drawdown test: s_w = B Q + C Q² from the line of s_w/Q against Q",
+        citation: "Jacob, C.E. (1947). Drawdown test to determine effective radius of artesian well. Transactions, American Society of Civil Engineers 112, 1047-1064.",
+        kind: "published",
+      },
+    ],
+  },
+  {
+    call: /\baq\.hvorslevSlugTest\b/,
+    sources: [
+      {
+        method: "Slug test: Hvorslev time lag",
+        citation: "Hvorslev, M.J. (1951). Time lag and soil permeability in ground-water observations. Bulletin 36, Waterways Experiment Station, U.S. Army Corps of Engineers.",
+        kind: "published",
+      },
+    ],
+  },
+  {
+    call: /\baq\.bouwerRiceSlugTest\b/,
+    sources: [
+      {
+        method: "Slug test: Bouwer and Rice",
+        citation: "Bouwer, H. and Rice, R.C. (1976). A slug test for determining hydraulic conductivity of unconfined aquifers with completely or partially penetrating wells. Water Resources Research 12(3), 423-428.",
+        kind: "published",
+      },
+    ],
+  },
+  {
+    call: /\baq\.cooperBredehoeftPapadopulosFit\b|\baq\.cbpNormalizedHead\b/,
+    sources: [
+      {
+        method: "Slug test: Cooper, Bredehoeft and Papadopulos type curve",
+        citation: "Cooper, H.H., Bredehoeft, J.D. and Papadopulos, I.S. (1967). Response of a finite-diameter well to an instantaneous charge of water. Water Resources Research 3(1), 263-269.",
+        kind: "published",
+      },
+    ],
+  },
+  {
+    call: /\baq\.estimateBarometricEfficiency\b|\baq\.correctBarometric\b/,
+    sources: [
+      {
+        method: "Barometric efficiency and the barometric correction",
+        citation: "Jacob, C.E. (1940). On the flow of water in an elastic artesian aquifer. Transactions, American Geophysical Union 21(2), 574-586.",
+        kind: "published",
+      },
+    ],
+  },
+  {
+    call: /\baq\.removeLinearTrend\b/,
+    sources: [
+      {
+        method: "Background trend: a straight line through the pre-test readings, extrapolated over the test",
+        citation: "common practice: it assumes the trend before the test would have continued unchanged through it.",
+        kind: "common practice",
+      },
+    ],
+  },
+  {
+    call: /\baq\.logResample\b/,
+    sources: [
+      {
+        method: "Thinning a logger record to a fixed number of readings per log cycle",
+        citation: "common practice: it keeps the late readings of a fixed-interval logger from outweighing the early ones in a fit.",
+        kind: "common practice",
+      },
+    ],
+  },
+  {
+    call: /\baq\.cooperJacobDistance\b/,
+    sources: [{ method: "Cooper-Jacob distance-drawdown line", citation: getModel("cooper-jacob").source, kind: "published" }],
+  },
+  {
+    call: /\baq\.barrierDistanceFromImage\b|\baq\.forecastDrawdown\b|\baq\.schemeDrawdown\b/,
+    sources: [
+      {
+        method: "Straight boundaries by image wells",
+        citation: "Ferris, J.G., Knowles, D.B., Brown, R.H. and Stallman, R.W. (1962). Theory of aquifer tests. U.S. Geological Survey Water-Supply Paper 1536-E.",
+        kind: "published",
+      },
+    ],
+  },
+  {
     call: /\baq\.parseObservationCsv\b/,
     sources: [
       {

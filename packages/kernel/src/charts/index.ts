@@ -9,3 +9,4 @@ export { stepTestChart, type StepTestInput } from "./step-test.js";
 export { specialisedPlotChart, type SpecialisedPlotInput } from "./specialised-plot.js";
 export { slugResponseChart, type SlugResponseInput } from "./slug-response.js";
 export { anisotropyEllipseChart, type AnisotropyEllipseInput } from "./anisotropy-ellipse.js";
+export { curvesChart, type CurveSeries, type CurvesInput } from "./curves.js";
