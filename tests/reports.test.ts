@@ -1,5 +1,5 @@
 /**
- * Golden reports: the demo, the template as it stands, and a document made from the template with an invented
+ * Golden reports: the demo, every template as it stands, and a document made from the template with an invented
  * confined record (tests/fixtures/report/make_confined_record.py, where the leakage factor runs to its bound)
  * export through `conebook export` (in process, the same code the binary runs) to HTML whose text and
  * structure (tests/support/html-outline.ts: headings, captions, table cells, paragraphs; not the SVG bytes)
@@ -11,7 +11,7 @@
  * of each report are written as PNG screenshots to tests/output/reports/ (not committed) for a person to look at.
  */
 import { mkdir, mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
-import { existsSync } from "node:fs";
+import { existsSync, readdirSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { basename, dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
@@ -25,6 +25,11 @@ const ROOT = fileURLToPath(new URL("..", import.meta.url));
 const GOLDEN = join(ROOT, "tests/golden/reports");
 const SHOTS = join(ROOT, "tests/output/reports");
 const UPDATE = process.env.CONEBOOK_UPDATE_GOLDEN === "1";
+/** The other templates, each exported as it stands: golden name `template-<file name without .cone.md>`. */
+const OTHER_TEMPLATES = readdirSync(join(ROOT, "notebooks/templates"))
+  .filter((f) => f.endsWith(".cone.md") && f !== "constant-rate-test.cone.md")
+  .sort()
+  .map((f) => ({ name: `template-${f.replace(/\.cone\.md$/, "")}`, path: join(ROOT, "notebooks/templates", f) }));
 
 interface Captured {
   code: number;
@@ -99,10 +104,11 @@ beforeAll(async () => {
   expect(start).toBeGreaterThan(0);
   await writeFile(madePath, text.slice(0, start) + HOLLIN_MARSH + text.slice(end));
   expect((await conebook(dir, "run", "hollin-marsh.cone.md", "--write")).code).toBe(0);
-  const documents = {
+  const documents: Record<string, string> = {
     demo: join(ROOT, "notebooks/kestrel-moor-constant-rate.cone.md"),
     template: join(ROOT, "notebooks/templates/constant-rate-test.cone.md"),
     "from-template": join(dir, "hollin-marsh.cone.md"),
+    ...Object.fromEntries(OTHER_TEMPLATES.map((t) => [t.name, t.path])),
   };
   for (const [name, path] of Object.entries(documents)) {
     const out = join(dir, `${name}.html`);
@@ -112,14 +118,14 @@ beforeAll(async () => {
     expect(r.code, r.err).toBe(0);
     reports[name] = { html: await readFile(out, "utf8"), document: path };
   }
-}, 120_000);
+}, 240_000);
 
 afterAll(async () => {
   if (dir) await rm(dir, { recursive: true, force: true });
 });
 
 describe("golden reports", () => {
-  for (const name of ["demo", "template", "from-template"]) {
+  for (const name of ["demo", "template", "from-template", ...OTHER_TEMPLATES.map((t) => t.name)]) {
     it(`the ${name} report has the committed text and structure`, async () => {
       const outline = reportOutline(reports[name]!.html);
       const file = join(GOLDEN, `${name}.txt`);

@@ -159,13 +159,13 @@ export function compareModels(fits: readonly ComparableFit[], options: CompareMo
   if (close.length > 0) {
     notes.push(
       `${close.join(", ")} ${close.length === 1 ? "is" : "are"} within ΔAIC ≤ 2 of the best: the data give such models substantial support as well ` +
-        "(Burnham and Anderson 2002, section 2.6, from memory); the ranking alone does not separate them.",
+        "(a rule of thumb, common practice); the ranking alone does not separate them.",
     );
   }
   if (!allAicc) notes.push("AICc is left out: at least one fit has n ≤ k + 1, where AICc is undefined.");
   const n0 = fits[0]!.n;
   if (allAicc && fits.some((f) => n0 / (f.p + 1) < 40)) {
-    notes.push("n/k < 40 for at least one model: AICc is the better-behaved criterion for such small samples (Burnham and Anderson 2002, section 2.4, from memory).");
+    notes.push("n/k < 40 for at least one model: AICc is the better-behaved criterion for such small samples (a rule of thumb, common practice).");
   }
   const correlated = fits
     .map((f, i) => ({ f, name: names[i]! }))

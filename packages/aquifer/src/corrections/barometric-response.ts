@@ -214,8 +214,8 @@ export function barometricResponse(options: BarometricResponseOptions): Barometr
     shape === "flat"
       ? `Hint, not a verdict: the response is about constant at ${formatNumber(am.response)} over ${m} lags: an instantaneous response, as in a confined aquifer (barometric efficiency ${formatNumber(am.response)}).`
       : shape === "rising"
-        ? `Hint, not a verdict: the response rises from ${formatNumber(a0.response)} to ${formatNumber(am.response)} with the lag: well-bore storage or a skin delays the well's response (Rasmussen and Crawford 1997, from memory).`
-        : `Hint, not a verdict: the response falls from ${formatNumber(a0.response)} to ${formatNumber(am.response)} with the lag: air pressure reaching the water table through the unsaturated zone, as in an unconfined aquifer (Rasmussen and Crawford 1997, from memory).`;
+        ? `Hint, not a verdict: the response rises from ${formatNumber(a0.response)} to ${formatNumber(am.response)} with the lag: well-bore storage or a skin delays the well's response (common practice).`
+        : `Hint, not a verdict: the response falls from ${formatNumber(a0.response)} to ${formatNumber(am.response)} with the lag: air pressure reaching the water table through the unsaturated zone, as in an unconfined aquifer (common practice).`;
   const warnings: string[] = [];
   if (fit.rSquared < 0.3) warnings.push(`r² = ${formatNumber(fit.rSquared)}: pressure explains little of the level changes; the response is poorly determined`);
   if (am.response < -0.1 || am.response > 1.1) {

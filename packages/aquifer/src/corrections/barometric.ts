@@ -29,9 +29,10 @@ import type { CorrectionRecord, CorrectionResult } from "./record.js";
 
 const JACOB_1940 =
   "Jacob, C.E. (1940). On the flow of water in an elastic artesian aquifer. Transactions, American Geophysical Union 21(2), 574-586.";
+/** The review's volume and pages are from memory. */
 const REGRESSION_SOURCE =
   "Least squares regression of water level on barometric pressure in water column, as reviewed by Rasmussen, T.C. and " +
-  "Crawford, L.A. (1997), Ground Water 35(3), 502-511 (from memory); BE as defined by Jacob (1940).";
+  "Crawford, L.A. (1997), Ground Water 35(3), 502-511; BE as defined by Jacob (1940).";
 
 /** Water levels and the barometric pressures read at the same times. */
 export interface BarometricData {

@@ -13,8 +13,9 @@ import { convert, requireDimension } from "../units/index.js";
 import { CorrectionError, formatNumber, requireFinite } from "./record.js";
 import type { CorrectionResult } from "./record.js";
 
+/** The citation is from memory (not checked against the report itself). */
 const JACOB_1944 =
-  "Jacob, C.E. (1944). Notes on determining permeability by pumping tests under water-table conditions. U.S. Geological Survey, mimeographed report (from memory).";
+  "Jacob, C.E. (1944). Notes on determining permeability by pumping tests under water-table conditions. U.S. Geological Survey, mimeographed report.";
 
 /** Drawdown beyond which the correction is flagged, as a fraction of b (common practice, no source). */
 export const JACOB_WARNING_FRACTION = 0.25;

@@ -93,7 +93,7 @@ export function gringartenFractureModel(geometry: FractureGeometry): DrawdownMod
       "The aquifer is confined, homogeneous, isotropic and infinite; the well intersects one vertical fracture of " +
         "half-length xf that spans the aquifer thickness, symmetric about the well.",
       infinite
-        ? "The fracture has infinite conductivity; approximated by the uniform-flux solution at x = 0.732 xf (from memory)."
+        ? "The fracture has infinite conductivity; approximated by the uniform-flux solution at x = 0.732 xf (common practice)."
         : "Water enters the fracture at a uniform rate per unit length (uniform-flux fracture); the fracture stores no water.",
       "The well pumps at a constant rate; well-bore storage and skin are neglected.",
     ],

@@ -99,7 +99,7 @@ export function underdampedSlugModel(geometry: UnderdampedGeometry): DrawdownMod
     ],
     validity: [
       "Highly permeable formations where the record oscillates or is near critically damped (C_D up to about 2-5).",
-      "The relation between C_D and K is quoted from memory and checked against the Bouwer-Rice limit.",
+      "The relation between C_D and K is not checked against its published source here; it is checked against the Bouwer-Rice limit.",
     ],
     cautions: [
       "Le fitted from the record should be close to the column length computed from the well; a large " +

@@ -62,7 +62,8 @@ export function waltonWellCondition(C: number): WellConditionHint | null {
     thresholds: WALTON_THRESHOLDS,
     hintOnly: true,
     source:
-      "Walton (1962), Illinois State Water Survey Bulletin 49: limits 5, 10, 40 s^2/ft^5 (from memory); " +
+      // The limits are from memory; the text shown calls them a rule of thumb.
+      "Walton (1962), Illinois State Water Survey Bulletin 49: limits 5, 10, 40 s^2/ft^5 (a rule of thumb, common practice); " +
       "a classification hint only.",
   };
 }

@@ -23,12 +23,14 @@ export function testInformationHtml(header: DocumentHeader, numbering: Numbering
   const length = typesetUnit(info.units?.length);
   const time = typesetUnit(info.units?.time);
   const rate = typesetUnit(info.units?.rate);
+  // A test without a pumped well (a slug test, a record of ambient levels) has no pumping to start or end.
+  const pumped = (info.wells ?? []).some((w) => w.role === "pumped") || (info.rates ?? []).length > 0;
   const items: [string, string | undefined][] = [
     ["Site", info.site],
     ["Location", info.location],
     ["Purpose", info.purpose],
-    ["Pumping started", info.started && dateText(info.started)],
-    ["Pumping ended", info.ended && dateText(info.ended)],
+    [pumped ? "Pumping started" : "Test started", info.started && dateText(info.started)],
+    [pumped ? "Pumping ended" : "Test ended", info.ended && dateText(info.ended)],
     ["Analyst", info.analyst],
     ["Reviewer", info.reviewer],
     ["Screen depths measured from", info.datum],
