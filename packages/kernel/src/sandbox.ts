@@ -324,10 +324,15 @@ export class Sandbox {
 
   /** Turns a guest error handle into plain data, classifying limit aborts. Disposes the handle. */
   private takeError(h: QuickJSHandle): GuestError {
-    const dumped: unknown = this.context.dump(h);
+    const described = this.describeThrown(h);
+    const dumped: unknown = described === undefined ? this.context.dump(h) : undefined;
     h.dispose();
     let error: GuestError;
-    if (dumped !== null && typeof dumped === "object") {
+    if (described !== undefined) {
+      const [, nameLength, messageLength, rest] = /^(\d+),(\d+),([\s\S]*)$/.exec(described)!;
+      const a = Number(nameLength), b = a + Number(messageLength);
+      error = { name: rest!.slice(0, a), message: rest!.slice(a, b), stack: rest!.slice(b) };
+    } else if (dumped !== null && typeof dumped === "object") {
       const d = dumped as Record<string, unknown>;
       error = { name: String(d.name ?? "Error"), message: String(d.message ?? ""), stack: String(d.stack ?? "") };
     } else error = { name: "Error", message: `a value was thrown that is not an Error: ${String(dumped)}`, stack: "" };
@@ -338,8 +343,27 @@ export class Sandbox {
     else if (this.memoryBytes() > this.softCapBytes) error.abort = "memory";
     else if (error.name === "InternalError" && error.message === "stack overflow") error.abort = "stack";
     else if (error.name === "RangeError" && /Maximum call stack/.test(error.message)) error.abort = "stack";
+    // The engine was interrupted at the deadline while the host read the thrown value (a getter that never returns).
+    else if (this.interrupted) error.abort = "time";
     if (error.abort) this.broken = true;
     return error;
+  }
+
+  /** The guest's own description of a thrown object (see describeThrown in the prelude), or undefined. */
+  private describeThrown(h: QuickJSHandle): string | undefined {
+    const ctx = this.context;
+    const kind = ctx.typeof(h);
+    if (kind !== "object" && kind !== "function") return undefined;
+    const fnH = ctx.getProp(this.internals, "describeThrown");
+    const result = ctx.callFunction(fnH, ctx.undefined, h);
+    fnH.dispose();
+    if (result.error) {
+      result.error.dispose();
+      return undefined;
+    }
+    const text = ctx.typeof(result.value) === "string" ? ctx.getString(result.value) : undefined;
+    result.value.dispose();
+    return text;
   }
 
   private withDeadline<T>(timeLimitMs: number, run: () => Outcome<T>): Outcome<T> {
