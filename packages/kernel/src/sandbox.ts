@@ -22,7 +22,7 @@
 import type { QuickJSContext, QuickJSHandle, QuickJSRuntime, QuickJSWASMModule } from "quickjs-emscripten-core";
 import { BRIDGE_API } from "./bridge-api.js";
 import { HostTimeLimitError, withHostDeadline } from "./host-budget.js";
-import { HOST_RESERVE_MB, MAX_ELEMENTS_PER_CALL, MAX_PROXY_KEYS, SANDBOX_BASE_MB, TEXT_REFERENCE_MIN_LENGTH, WORK_CHECK_UNITS } from "./limits.js";
+import { HOST_RESERVE_MB, MAX_ELEMENTS_PER_CALL, MAX_PROXY_KEYS, MAX_STRING_LENGTH, SANDBOX_BASE_MB, TEXT_REFERENCE_MIN_LENGTH, WORK_CHECK_UNITS } from "./limits.js";
 import type { DataTable } from "./data-cells.js";
 import { GUEST_PRELUDE, GUEST_PRELUDE_FILENAME } from "./guest-prelude.js";
 import { ArgumentError } from "./validators.js";
@@ -341,11 +341,15 @@ export class Sandbox {
     else if (error.name === "InternalError" && error.message === "out of memory") error.abort = "memory";
     // An allocation that failed for want of WebAssembly memory can leave an error that cannot even be described.
     else if (this.memoryBytes() > this.softCapBytes) error.abort = "memory";
-    else if (error.name === "InternalError" && error.message === "stack overflow") error.abort = "stack";
+    // JSON.parse of deeply nested text reports its stack overflow as a SyntaxError.
+    else if ((error.name === "InternalError" || error.name === "SyntaxError") && error.message === "stack overflow") error.abort = "stack";
     else if (error.name === "RangeError" && /Maximum call stack/.test(error.message)) error.abort = "stack";
     // The engine was interrupted at the deadline while the host read the thrown value (a getter that never returns).
     else if (this.interrupted) error.abort = "time";
     if (error.abort) this.broken = true;
+    else if (error.name === "InternalError" && error.message === "string too long") {
+      error.message = `string too long: a string in a cell may hold at most ${MAX_STRING_LENGTH} characters; build the text in smaller parts`;
+    }
     return error;
   }
 
