@@ -8,7 +8,7 @@
  * Errors thrown by the host function reach the cell as errors named after the guest function.
  * docs/api.md ("Inside a cell") lists these functions for users; keep the two in step.
  */
-import { hostCheckpoint } from "./host-budget.js";
+import { deadlineCheckedModel, hostCheckpoint } from "./host-budget.js";
 import {
   agarwalEquivalentTime,
   barrierDistanceFromImage,
@@ -790,7 +790,7 @@ export const AQUIFER_API: Readonly<Record<string, BridgeEntry>> = {
   "aq.fitModel": fn(
     "Least-squares fit of model id to one or more wells: estimates, standard errors, 95 % intervals, RMSE, AIC, BIC, residuals",
     [arg("options", fitOptionsArg)],
-    (options) => fitModel(options),
+    (options) => fitModel({ ...options, model: deadlineCheckedModel(options.model, "aq.fitModel") }),
   ),
   "aq.estimateBarometricEfficiency": fn(
     "Barometric efficiency BE (1) by regression of levels on barometric pressure as water column { levels, levelKind, levelUnit, pressures, pressureUnit, method? }",
@@ -926,7 +926,7 @@ export const AQUIFER_API: Readonly<Record<string, BridgeEntry>> = {
   "aq.fitSeries": fn(
     "Fit of model id to observation series in their own units; estimates in base units plus a table in reportUnits (e.g. { T: 'ft2/d' })",
     [arg("options", fitSeriesArg)],
-    (options) => fitSeries(options),
+    (options) => fitSeries({ ...options, model: deadlineCheckedModel(options.model as DrawdownModel, "aq.fitSeries") }),
   ),
   "aq.compareModels": fn(
     "Ranking of fits to the same data by AIC with delta AIC and Akaike weights, BIC, AICc and RMSE in lengthUnit; options { names?, lengthUnit? }",

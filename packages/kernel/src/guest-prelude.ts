@@ -24,6 +24,7 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   const sliceArray = Function.prototype.call.bind(Array.prototype.slice);
   const push = Function.prototype.call.bind(Array.prototype.push);
   const callFn = Function.prototype.call.bind(Function.prototype.call);
+  const hasOwn = Function.prototype.call.bind(Object.prototype.hasOwnProperty);
   const indirectEval = eval, construct = Reflect.construct;
   const DISPLAY = Sym("conebook.display");
   // The CSV texts of the data tables a cell has read, by table index: passed back, one crosses as a reference.
@@ -160,6 +161,12 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   }
 
   function encode(value, where) {
+    // JSON.stringify calls an inherited toJSON on every object and array of the wire text itself.
+    for (let i = 0; i < 2; i++) {
+      if (hasOwn(i === 0 ? objectProto : arrayProto, "toJSON")) {
+        throw new TypeErr(where + " cannot be passed while " + (i === 0 ? "Object" : "Array") + ".prototype has a toJSON method, which would replace every value sent to the host; delete " + (i === 0 ? "Object" : "Array") + ".prototype.toJSON");
+      }
+    }
     const buffers = [], patches = [], path = [], containers = [], tables = [];
     function recordTable(spec, depth) {
       const columns = [];
@@ -804,5 +811,17 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     defineProperty(G, names[i], { value: api[names[i]], writable: false, enumerable: false, configurable: false });
   }
   lockGlobalDefinitions();
-  return freeze({ defineTable: defineTable, readGlobal: readGlobal, displayCompletion: displayCompletion });
+  // The name, message and stack of a thrown value as one text ("4,7,NameMessageStack": the lengths of the name and
+  // the message, then the three), read without JSON: a cell may
+  // have given Object.prototype a toJSON, which would otherwise replace the message. undefined when there is no
+  // message text (a thrown string, a plain object).
+  function describeThrown(e) {
+    if (e === null || (typeof e !== "object" && typeof e !== "function")) return undefined;
+    const n = e.name, m = e.message, s = e.stack;
+    if (typeof m !== "string") return undefined;
+    const name = typeof n === "string" ? n : "Error";
+    return name.length + "," + m.length + "," + name + m + (typeof s === "string" ? s : "");
+  }
+
+  return freeze({ defineTable: defineTable, readGlobal: readGlobal, displayCompletion: displayCompletion, describeThrown: describeThrown });
 })`;

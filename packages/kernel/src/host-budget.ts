@@ -4,6 +4,7 @@
  * throws HostTimeLimitError, which the sandbox turns into the cell's time-limit stop. Host calls are synchronous
  * and never nested, so the deadline of the call in progress is one module-level value.
  */
+import type { DrawdownModel } from "@conebook/aquifer";
 
 /** A host call reached the deadline of the cell that made it. */
 export class HostTimeLimitError extends Error {
@@ -31,4 +32,31 @@ export function checkHostDeadline(where: string): void {
 /** A checkpoint callback for a host function's long loops (see forecastDrawdown's `checkpoint`). */
 export function hostCheckpoint(where: string): () => void {
   return () => checkHostDeadline(where);
+}
+
+/**
+ * The model with the deadline checked before each evaluation of its drawdown and Jacobian, for host calls that
+ * evaluate a model many times (fits: up to maxEvaluations plus profile intervals). Everything else is the model's
+ * own (inherited), so results are unchanged; one evaluation is the margin past the deadline.
+ */
+export function deadlineCheckedModel<M extends DrawdownModel>(model: M, where: string): M {
+  // Own properties defined over the inherited ones: registered models are frozen.
+  const own: PropertyDescriptorMap = {
+    drawdown: {
+      value: (p: ArrayLike<number>, geometry: Parameters<DrawdownModel["drawdown"]>[1], t: ArrayLike<number>, out?: Float64Array) => {
+        checkHostDeadline(where);
+        return model.drawdown(p, geometry, t, out);
+      },
+    },
+  };
+  const jacobian = model.jacobian;
+  if (jacobian) {
+    own.jacobian = {
+      value: (p: ArrayLike<number>, geometry: Parameters<DrawdownModel["drawdown"]>[1], t: ArrayLike<number>) => {
+        checkHostDeadline(where);
+        return jacobian.call(model, p, geometry, t);
+      },
+    };
+  }
+  return Object.create(model, own) as M;
 }

@@ -33,6 +33,8 @@ export const MAX_ELEMENTS_PER_CALL = 2 ** 24;
  * milliseconds would otherwise be checked only every 10 to 100 s.
  */
 export const WORK_CHECK_UNITS = 2 ** 20;
+/** Most characters of one string in the sandbox (QuickJS's own cap, 2^30 - 1; checked by sandbox-attacks.test.ts). */
+export const MAX_STRING_LENGTH = 2 ** 30 - 1;
 /** Most keys a Proxy's ownKeys trap may return (the engine's duplicate check is quadratic: 10,000 keys take about 25 ms). */
 export const MAX_PROXY_KEYS = 10_000;
 /**

@@ -22,7 +22,7 @@
 import type { QuickJSContext, QuickJSHandle, QuickJSRuntime, QuickJSWASMModule } from "quickjs-emscripten-core";
 import { BRIDGE_API } from "./bridge-api.js";
 import { HostTimeLimitError, withHostDeadline } from "./host-budget.js";
-import { HOST_RESERVE_MB, MAX_ELEMENTS_PER_CALL, MAX_PROXY_KEYS, SANDBOX_BASE_MB, TEXT_REFERENCE_MIN_LENGTH, WORK_CHECK_UNITS } from "./limits.js";
+import { HOST_RESERVE_MB, MAX_ELEMENTS_PER_CALL, MAX_PROXY_KEYS, MAX_STRING_LENGTH, SANDBOX_BASE_MB, TEXT_REFERENCE_MIN_LENGTH, WORK_CHECK_UNITS } from "./limits.js";
 import type { DataTable } from "./data-cells.js";
 import { GUEST_PRELUDE, GUEST_PRELUDE_FILENAME } from "./guest-prelude.js";
 import { ArgumentError } from "./validators.js";
@@ -324,10 +324,15 @@ export class Sandbox {
 
   /** Turns a guest error handle into plain data, classifying limit aborts. Disposes the handle. */
   private takeError(h: QuickJSHandle): GuestError {
-    const dumped: unknown = this.context.dump(h);
+    const described = this.describeThrown(h);
+    const dumped: unknown = described === undefined ? this.context.dump(h) : undefined;
     h.dispose();
     let error: GuestError;
-    if (dumped !== null && typeof dumped === "object") {
+    if (described !== undefined) {
+      const [, nameLength, messageLength, rest] = /^(\d+),(\d+),([\s\S]*)$/.exec(described)!;
+      const a = Number(nameLength), b = a + Number(messageLength);
+      error = { name: rest!.slice(0, a), message: rest!.slice(a, b), stack: rest!.slice(b) };
+    } else if (dumped !== null && typeof dumped === "object") {
       const d = dumped as Record<string, unknown>;
       error = { name: String(d.name ?? "Error"), message: String(d.message ?? ""), stack: String(d.stack ?? "") };
     } else error = { name: "Error", message: `a value was thrown that is not an Error: ${String(dumped)}`, stack: "" };
@@ -336,10 +341,33 @@ export class Sandbox {
     else if (error.name === "InternalError" && error.message === "out of memory") error.abort = "memory";
     // An allocation that failed for want of WebAssembly memory can leave an error that cannot even be described.
     else if (this.memoryBytes() > this.softCapBytes) error.abort = "memory";
-    else if (error.name === "InternalError" && error.message === "stack overflow") error.abort = "stack";
+    // JSON.parse of deeply nested text reports its stack overflow as a SyntaxError.
+    else if ((error.name === "InternalError" || error.name === "SyntaxError") && error.message === "stack overflow") error.abort = "stack";
     else if (error.name === "RangeError" && /Maximum call stack/.test(error.message)) error.abort = "stack";
+    // The engine was interrupted at the deadline while the host read the thrown value (a getter that never returns).
+    else if (this.interrupted) error.abort = "time";
     if (error.abort) this.broken = true;
+    else if (error.name === "InternalError" && error.message === "string too long") {
+      error.message = `string too long: a string in a cell may hold at most ${MAX_STRING_LENGTH} characters; build the text in smaller parts`;
+    }
     return error;
+  }
+
+  /** The guest's own description of a thrown object (see describeThrown in the prelude), or undefined. */
+  private describeThrown(h: QuickJSHandle): string | undefined {
+    const ctx = this.context;
+    const kind = ctx.typeof(h);
+    if (kind !== "object" && kind !== "function") return undefined;
+    const fnH = ctx.getProp(this.internals, "describeThrown");
+    const result = ctx.callFunction(fnH, ctx.undefined, h);
+    fnH.dispose();
+    if (result.error) {
+      result.error.dispose();
+      return undefined;
+    }
+    const text = ctx.typeof(result.value) === "string" ? ctx.getString(result.value) : undefined;
+    result.value.dispose();
+    return text;
   }
 
   private withDeadline<T>(timeLimitMs: number, run: () => Outcome<T>): Outcome<T> {

@@ -158,6 +158,17 @@ describe("limits inside host calls", () => {
     expect(performance.now() - t0).toBeLessThan(20 + 1500);
   });
 
+  it("stops a fit between two model evaluations at the cell's time limit", async () => {
+    // 400,000 readings: the fit takes about 2 s of host time; each evaluation of the Theis model about 10 ms.
+    const data = "const t = new Float64Array(400000); for (let i = 0; i < t.length; i++) t[i] = 0.001 * (i + 1); const s = aq.drawdown('theis', { T: 300, S: 2e-4 }, { r: 30, Q: 1000 }, t);";
+    const fit = "aq.fitModel({ model: 'theis', wells: [{ name: 'OW-1', geometry: { r: 30, Q: 1000 }, t, s }], start: { T: 30, S: 1e-3 } })";
+    const r = await kernel.runDocument(makeDoc([data, fit, "1"], { timeLimitMs: 300, memoryLimitMb: 128 }));
+    expect(r.status.c1).toBe("ok");
+    expect(r.outputs.c2![0]).toMatchObject({ type: "error", message: expect.stringContaining("Cell c2 was stopped after running for its time limit of 300 ms.") });
+    expect(r.status.c3).toBe("not-run");
+    expect(r.timings.cells.c2!).toBeLessThan(300 + 1500);
+  });
+
   it("does not let a cell catch the stop of a host call at its time limit", async () => {
     const times = "Array.from({ length: 40 }, (_, i) => 0.01 * (i + 1))";
     const { out } = await runCell(`try { aq.forecastDrawdown({ ${given}, ${scheme}, times: ${times}, uncertainty: { monteCarlo: { samples: 10000, seed: 1 } } }) } catch (e) {} "escaped"`, { timeLimitMs: 100 });

@@ -62,6 +62,19 @@ describe("sandbox safety contract", () => {
     expect(w0).toBeCloseTo(0.21938393439552, 12);
   });
 
+  it("reports the real error when a cell gave Object.prototype a toJSON or threw a value whose getter never returns", async () => {
+    const polluted = "Object.prototype.toJSON = function () { return 'replaced' };";
+    const { out } = await first([`${polluted} aq.expint1(1)`]);
+    expect(out.c1![0]).toMatchObject({
+      type: "error",
+      message: "TypeError: aq.expint1: argument list cannot be passed while Object.prototype has a toJSON method, which would replace every value sent to the host; delete Object.prototype.toJSON",
+    });
+    const { out: thrown } = await first([`${polluted} aq.expint1(-1)`.replace("aq.expint1(-1)", "throw new RangeError('own message')")]);
+    expect(thrown.c1![0]).toMatchObject({ type: "error", message: "RangeError: own message" });
+    const { out: stuck } = await first(["throw { get message() { for (;;) {} } }"], { timeLimitMs: 200 });
+    expect(stuck.c1![0]).toMatchObject({ type: "error", message: expect.stringMatching(/^Cell c1 was stopped after running for its time limit of 200 ms\./) });
+  });
+
   it("interrupts an endless loop after the time limit with a clear message", async () => {
     const t0 = performance.now();
     const { r, out } = await first(["1", "while (true) {}", "2"], { timeLimitMs: 200 });

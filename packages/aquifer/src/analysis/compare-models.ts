@@ -11,6 +11,7 @@ import type { FitResult } from "../fit/index.js";
 import { convert } from "../units/index.js";
 import { AnalysisInputError } from "./errors.js";
 import { convertAt } from "./unit-values.js";
+import { largestOf } from "../numerics/extremes.js";
 
 /** The parts of a fit result a comparison reads (a FitResult has them all). */
 export type ComparableFit = Pick<FitResult, "modelId" | "n" | "p" | "aic" | "bic" | "aicc" | "rmse" | "converged"> & {
@@ -91,7 +92,7 @@ function checkSameData(fits: readonly ComparableFit[], names: readonly string[])
   const first = fits[0]!;
   const flat = (f: ComparableFit) => f.residuals.flatMap((w) => Array.from(w.observed));
   const reference = flat(first);
-  const scale = Math.max(...reference.map(Math.abs), 1e-300);
+  const scale = Math.max(largestOf(reference.map(Math.abs)), 1e-300);
   fits.forEach((f, i) => {
     if (f.n !== first.n) {
       throw new AnalysisInputError(

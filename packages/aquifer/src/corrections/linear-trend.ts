@@ -13,6 +13,7 @@ import { requireDimension } from "../units/index.js";
 import { fitLine } from "./least-squares-line.js";
 import { CorrectionError, formatNumber, requireFinite, requireSameLength } from "./record.js";
 import type { CorrectionResult } from "./record.js";
+import { smallestOf } from "../numerics/extremes.js";
 
 /** Least number of pre-test readings for a trend with a standard error (n - 2 >= 1). */
 export const MIN_PRE_TEST_POINTS = 3;
@@ -96,7 +97,7 @@ export function removeLinearTrend(options: LinearTrendOptions): LinearTrendResul
     rSquared: line.rSquared,
     residualStandardDeviation: line.residualStandardDeviation,
   };
-  const preSpan = -Math.min(...preT);
+  const preSpan = -smallestOf(preT);
   const testSpan = testEnd - t0;
   const warnings: string[] = [];
   if (testSpan > 2 * preSpan) {

@@ -8,6 +8,7 @@ import { drawdownFromDepthToWater, drawdownFromHead } from "../data/levels.js";
 import { requireDimension } from "../units/index.js";
 import { CorrectionError, formatNumber, requireFinite, requireSameLength } from "./record.js";
 import type { CorrectionResult } from "./record.js";
+import { largestOf, smallestOf } from "../numerics/extremes.js";
 
 /** Options of `estimateStaticLevel`. */
 export interface StaticLevelOptions {
@@ -69,7 +70,7 @@ export function estimateStaticLevel(options: StaticLevelOptions): StaticLevelEst
     level: mean,
     count: n,
     standardDeviation: sd,
-    range: Math.max(...vs) - Math.min(...vs),
+    range: largestOf(vs) - smallestOf(vs),
     timeSpan: [used[0]!.t, used[n - 1]!.t],
     lengthUnit: options.lengthUnit,
   };

@@ -17,6 +17,7 @@ import { withRateSchedule, type PumpingStep } from "../superposition/index.js";
 import { StepTestInputError } from "./errors.js";
 import { wellLossCoefficientUnit } from "./step-performance.js";
 import { portablePow } from "../numerics/portable-math.js";
+import { largestOf } from "../numerics/extremes.js";
 
 /** Well-loss coefficient C of s = C Q^n, base units d^n / m^(3n - 1) (d2/m5 for n = 2). */
 export const wellLossParameter: ParameterDescriptor = {
@@ -181,7 +182,7 @@ export function fitStepDrawdown(input: StepDrawdownFitInput): StepDrawdownFit {
   const k = input.aquifer.parameters.length;
   const aquiferOnly = withRateSchedule(input.aquifer, input.steps);
   const steps = input.steps.map((step, i) => {
-    const end = i + 1 < input.steps.length ? input.steps[i + 1]!.start : Math.max(...Array.from(input.t));
+    const end = i + 1 < input.steps.length ? input.steps[i + 1]!.start : largestOf(input.t);
     const aquiferLoss = aquiferOnly.drawdown(values.slice(0, k), geometry, [end])[0]!;
     const wellLoss = step.rate > 0 ? values[k]! * portablePow(step.rate, values[k + 1]!) : 0;
     return { rate: step.rate, end, aquiferLoss, wellLoss, efficiency: aquiferLoss / (aquiferLoss + wellLoss) };
