@@ -1,7 +1,8 @@
 /**
  * Rendering narrative Markdown to HTML with markdown-it (CommonMark, plus tables and strikethrough).
  * Raw HTML is off (`html: false`): tags in the text are shown as text, and markdown-it's link validation refuses
- * javascript:, vbscript:, file: and non-image data: URLs, so the output needs no further sanitizing.
+ * javascript:, vbscript:, file: and non-image data: URLs, so the output needs no further sanitizing. Images from
+ * anything but a data: URL are shown as text, never fetched.
  *
  * Narrative references (`{=CELL/ROW/COLUMN}`, references.ts) are read by an inline rule of our own outside code
  * spans and blocks; the caller's `reference` function gives each its text, which is escaped here like all text.
@@ -47,6 +48,20 @@ markdown.renderer.rules.conebook_reference = (tokens, idx, _options, environment
   const r = env.reference(found);
   const title = r.title === undefined ? "" : ` title="${escape(r.title)}"`;
   return `<span class="reference${r.problem ? " reference-problem" : ""}"${title}>${escape(r.text)}</span>`;
+};
+
+const defaultImage = markdown.renderer.rules.image!;
+/**
+ * An image is drawn only from a data: URL inside the document; any other source (a web address, a file path) is
+ * shown as text, so that opening a page or a report never makes a request the reader did not ask for.
+ */
+markdown.renderer.rules.image = (tokens, idx: number, options, environment, self) => {
+  const token = tokens[idx]!;
+  const src = String(token.attrGet("src") ?? "");
+  if (/^data:image\//i.test(src)) return defaultImage(tokens, idx, options, environment, self);
+  const escape = markdown.utils.escapeHtml;
+  const alt = token.children ? self.renderInlineAsText(token.children, options, environment) : token.content;
+  return `<span class="image-not-loaded">[image not loaded: ${escape(alt)} (${escape(src)})]</span>`;
 };
 
 /** Renders narrative Markdown to an HTML fragment. Cost: linear in the length of the text. */
