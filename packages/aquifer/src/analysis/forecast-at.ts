@@ -10,7 +10,7 @@ import { getModel, type DrawdownModel, type ModelSpec } from "../models/index.js
 import { convertArray } from "../units/index.js";
 import { AnalysisInputError } from "./errors.js";
 import { convertAt } from "./unit-values.js";
-import { largestOf } from "../numerics/extremes.js";
+import { largestOfAll } from "../numerics/extremes.js";
 
 /** The parts of a fit result a forecast reads (a FitResult has them all; plain data from a cell may carry just these). */
 export interface ForecastableFit {
@@ -219,7 +219,7 @@ export function forecastAt(options: ForecastAtOptions): ForecastAtResult {
   const notes = [...result.notes, ...(options.model === undefined && fit.modelId.endsWith(WELL_LOSS) ? wellLossNotes(fit, steps) : [])];
   const spec = (model as { spec?: Record<string, unknown> }).spec;
   const thickness = typeof spec?.saturatedThickness === "number" ? spec.saturatedThickness : typeof spec?.aquiferThickness === "number" ? spec.aquiferThickness : undefined;
-  const largest = largestOf(result.points.flatMap((p) => Array.from(p.drawdown)));
+  const largest = largestOfAll(result.points.map((p) => p.drawdown));
   if (thickness !== undefined && largest > thickness) {
     notes.push(
       `Plausibility: the forecast drawdown reaches ${Number(largest.toPrecision(3))} m, more than the saturated thickness ${thickness} m: the aquifer ` +

@@ -20,7 +20,7 @@ import { deriveStartValues, type StartMethod } from "./start-values.js";
 import { fitSpaceCovariance, informationCriteria } from "./statistics.js";
 import { studentTQuantile } from "./student-t.js";
 import { cooperJacobCheck, wellboreStorageCheck, type ExcludedReading } from "./validity-checks.js";
-import { largestOf } from "../numerics/extremes.js";
+import { largestOfAll } from "../numerics/extremes.js";
 
 /** How the Jacobian is obtained: the model's analytic one, or finite differences in the fitting space. */
 export type JacobianMethod = "analytic" | "forward" | "central";
@@ -832,7 +832,7 @@ function assemble(
     start: { values: startRecord, method: start.method, notes: start.notes },
     errors,
     warnings,
-    plausibility: plausibilityNotes(model, Object.fromEntries(parameters.map((q) => [q.name, q.estimate])), largestOf(residuals.flatMap((w) => Array.from(w.observed)))),
+    plausibility: plausibilityNotes(model, Object.fromEntries(parameters.map((q) => [q.name, q.estimate])), largestOfAll(residuals.map((w) => w.observed))),
   };
 }
 

@@ -26,6 +26,12 @@ export function timeOrder(wells: readonly PackedWell[]): TimeOrder {
   let k = 0;
   wells.forEach((w, b) => {
     blocks[b] = k;
+    let sorted = true;
+    for (let i = 1; i < w.t.length && sorted; i++) sorted = w.t[i - 1]! <= w.t[i]!;
+    if (sorted) {
+      for (let i = 0; i < w.t.length; i++) seq[k++] = w.offset + i;
+      return;
+    }
     const local = Array.from({ length: w.t.length }, (_, i) => i).sort((i, j) => w.t[i]! - w.t[j]! || i - j);
     for (const i of local) seq[k++] = w.offset + i;
   });
@@ -134,21 +140,56 @@ export function adjacentPairs(order: TimeOrder): number {
  * using the symmetry of C and S; tr(S) = n and tr(C S) = rho (number of adjacent pairs).
  */
 export function projectedTraces(order: TimeOrder, basis: readonly Float64Array[], rho: number): { mSigma: number; mcmSigma: number } {
+  return projectedTracesOf(order, basis)(rho);
+}
+
+/**
+ * The traces of {@link projectedTraces} as a function of rho for one basis: the lag products C q_k and the
+ * matrix Q' C Q, which do not depend on rho, are formed once, and the products Sigma(rho) q_k reuse their
+ * buffers, so a root search over rho costs q AR(1) products and O(n q^2) dot products per step. Same
+ * arithmetic, in the same order, as a fresh evaluation: the values are identical.
+ */
+export function projectedTracesOf(order: TimeOrder, basis: readonly Float64Array[]): (rho: number) => { mSigma: number; mcmSigma: number } {
   const n = order.seq.length;
   const q = basis.length;
-  const sigmaQ = basis.map((v) => ar1Product(order, rho, v, new Float64Array(n)));
   const lagQ = basis.map((v) => lagProduct(order, v, new Float64Array(n)));
-  let mSigma = n;
-  let cross = 0;
-  for (let k = 0; k < q; k++) {
-    mSigma -= dot(basis[k]!, sigmaQ[k]!);
-    cross += dot(lagQ[k]!, sigmaQ[k]!);
-  }
-  let product = 0;
-  for (let a = 0; a < q; a++) {
-    for (let b = 0; b < q; b++) product += dot(basis[a]!, lagQ[b]!) * dot(basis[b]!, sigmaQ[a]!);
-  }
-  return { mSigma, mcmSigma: rho * adjacentPairs(order) - 2 * cross + product };
+  const qLagQ = new Float64Array(q * q);
+  for (let a = 0; a < q; a++) for (let b = 0; b < q; b++) qLagQ[a * q + b] = dot(basis[a]!, lagQ[b]!);
+  const pairs = adjacentPairs(order);
+  const sigmaQ = basis.map(() => new Float64Array(n));
+  // qSigmaQ[b * q + a] = q_b' Sigma q_a and lagSigma[k] = (C q_k)' Sigma q_k, each summed in ascending index
+  // order in one pass over the vectors (as dot() sums them).
+  const qSigmaQ = new Float64Array(q * q);
+  const lagSigma = new Float64Array(q);
+  return (rho) => {
+    for (let k = 0; k < q; k++) ar1Product(order, rho, basis[k]!, sigmaQ[k]!);
+    qSigmaQ.fill(0);
+    lagSigma.fill(0);
+    for (let a = 0; a < q; a++) {
+      const sa = sigmaQ[a]!;
+      const la = lagQ[a]!;
+      for (let b = 0; b < q; b++) {
+        const qb = basis[b]!;
+        let sum = 0;
+        for (let i = 0; i < n; i++) sum += qb[i]! * sa[i]!;
+        qSigmaQ[b * q + a] = sum;
+      }
+      let lag = 0;
+      for (let i = 0; i < n; i++) lag += la[i]! * sa[i]!;
+      lagSigma[a] = lag;
+    }
+    let mSigma = n;
+    let cross = 0;
+    for (let k = 0; k < q; k++) {
+      mSigma -= qSigmaQ[k * q + k]!;
+      cross += lagSigma[k]!;
+    }
+    let product = 0;
+    for (let a = 0; a < q; a++) {
+      for (let b = 0; b < q; b++) product += qLagQ[a * q + b]! * qSigmaQ[b * q + a]!;
+    }
+    return { mSigma, mcmSigma: rho * pairs - 2 * cross + product };
+  };
 }
 
 /**

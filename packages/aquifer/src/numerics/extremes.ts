@@ -24,3 +24,14 @@ export function smallestOf(values: ArrayLike<number>): number {
   }
   return m;
 }
+
+/** The largest value over several arrays, as largestOf of their concatenation gives it (without concatenating). */
+export function largestOfAll(arrays: readonly ArrayLike<number>[]): number {
+  let m = -Infinity;
+  for (const values of arrays) {
+    const v = largestOf(values);
+    if (v !== v) return NaN;
+    if (v > m || (v === 0 && m === 0 && 1 / m < 0)) m = v;
+  }
+  return m;
+}
