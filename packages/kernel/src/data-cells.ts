@@ -9,7 +9,7 @@
  * first reads them (guest-prelude.ts), so a large record that is only handed to an importer via `csv` never
  * becomes 100,000 objects.
  */
-import { readCsvRecords, type CsvSeparator } from "@conebook/aquifer";
+import { scanCsvRecords, type CsvSeparator } from "@conebook/aquifer";
 import { decodeUtf8Strict, describeUtf8Problem } from "@conebook/document";
 import type { DataCell } from "@conebook/document";
 import { platformSha256 } from "./digest.js";
@@ -83,38 +83,103 @@ function fieldValue(raw: string): number | string | null {
  * `checkpoint` is called as the records are read (the kernel's time limit for the data cell; it may throw).
  */
 export function parseDataTable(name: string, text: string, firstLine = 1, checkpoint?: () => void): DataTable {
-  const { records, problems } = readCsvRecords(text, guessSeparator(text), firstLine, checkpoint);
+  const separator = guessSeparator(text);
+  let columns: string[] | undefined;
+  let builders: ColumnBuilder[] = [];
+  let n = 0;
+  let ragged: DataCellError | undefined;
+  const problems = scanCsvRecords(
+    text,
+    separator,
+    (fields, line) => {
+      if (ragged) return;
+      if (!columns) {
+        columns = fields.map((f) => f.trim());
+        builders = columns.map(() => new ColumnBuilder());
+        return;
+      }
+      if (fields.length !== columns.length) {
+        ragged = new DataCellError(`data "${name}", line ${line}: ${fields.length} fields but the header has ${columns.length}; give one field per column`, line);
+        return;
+      }
+      for (let c = 0; c < builders.length; c++) builders[c]!.add(fields[c]!.trim(), n);
+      n++;
+    },
+    firstLine,
+    checkpoint,
+  );
   if (problems.length > 0) {
     const p = problems[0]!;
     throw new DataCellError(`data "${name}", line ${p.line}, field ${p.field}: ${p.message} ${p.fix}`, p.line);
   }
-  const header = records[0];
-  if (!header) throw new DataCellError(`data "${name}" is empty; give a header line with column names and then the rows`);
-  const columns = header.fields.map((f) => f.trim());
-  const n = records.length - 1;
-  const raw: string[][] = columns.map(() => new Array<string>(n));
-  for (let r = 0; r < n; r++) {
-    const record = records[r + 1]!;
-    const fields = record.fields;
-    if (fields.length !== columns.length) {
-      throw new DataCellError(`data "${name}", line ${record.line}: ${fields.length} fields but the header has ${columns.length}; give one field per column`, record.line);
-    }
-    for (let c = 0; c < columns.length; c++) raw[c]![r] = fields[c]!.trim();
-  }
-  const values = raw.map((fields): DataColumn => {
-    const numbers = new Float64Array(n);
-    let sawNumber = false;
-    for (let r = 0; r < n; r++) {
-      const f = fields[r]!;
-      if (f === "") numbers[r] = NaN;
-      else if (NUMBER.test(f)) {
-        numbers[r] = Number(f);
-        sawNumber = true;
-      } else return fields.map(fieldValue);
-    }
-    return sawNumber ? numbers : fields.map(fieldValue);
-  });
+  if (!columns) throw new DataCellError(`data "${name}" is empty; give a header line with column names and then the rows`);
+  if (ragged) throw ragged;
+  const values = builders.map((b, c): DataColumn => b.column(n) ?? textColumn(text, separator, c, n, firstLine));
   return { name, columns, values, length: n, csv: text };
+}
+
+/**
+ * One column being read: numbers while every field so far reads as one (NaN for empty fields), the field values
+ * once a field does not, from the first row on. A column that turns to text after some numbers is read again by
+ * textColumn (rare: a text column usually shows text in its first row), so numeric columns never hold a string per
+ * row.
+ */
+class ColumnBuilder {
+  private numbers = new Float64Array(1024);
+  private sawNumber = false;
+  private texts: (number | string | null)[] | undefined;
+  private reread = false;
+
+  add(field: string, row: number): void {
+    if (this.reread) return;
+    if (this.texts) {
+      this.texts.push(fieldValue(field));
+      return;
+    }
+    let v: number;
+    if (field === "") v = NaN;
+    else if (NUMBER.test(field)) {
+      v = Number(field);
+      this.sawNumber = true;
+    } else {
+      if (row > 0) {
+        this.reread = true;
+        return;
+      }
+      this.texts = [fieldValue(field)];
+      return;
+    }
+    if (row === this.numbers.length) {
+      const grown = new Float64Array(this.numbers.length * 2);
+      grown.set(this.numbers);
+      this.numbers = grown;
+    }
+    this.numbers[row] = v;
+  }
+
+  /** The column of n rows, or undefined when it must be read again as text. */
+  column(n: number): DataColumn | undefined {
+    if (this.reread) return undefined;
+    if (this.texts) return this.texts;
+    if (this.sawNumber) return this.numbers.length === n ? this.numbers : this.numbers.slice(0, n);
+    return new Array<null>(n).fill(null);
+  }
+}
+
+/** Field values (fieldValue) of column c of the n data rows, read again from the text. */
+function textColumn(text: string, separator: CsvSeparator, c: number, n: number, firstLine: number): DataColumn {
+  const out: (number | string | null)[] = [];
+  let header = true;
+  scanCsvRecords(
+    text,
+    separator,
+    (fields) => {
+      if (header) header = false;
+      else if (out.length < n) out.push(fieldValue(fields[c]!.trim()));
+    },
+    firstLine,
+  );
+  return out;
 }
 
 /** The rows of a table as records, as a cell sees them in `rows` (numbers, null for empty fields, text). */

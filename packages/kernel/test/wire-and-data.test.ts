@@ -121,6 +121,23 @@ describe("data cells in columns", () => {
     ]);
   });
 
+  it("turns a column to field values when text follows thousands of numbers, and reads an all-empty column as nulls", () => {
+    const n = 3000;
+    const lines = ["t,mixed,blank"];
+    for (let i = 0; i < n; i++) lines.push(`${i * 0.5},${i === n - 1 ? "dry" : i},`);
+    const table = parseDataTable("long", lines.join("\n"));
+    expect(table.length).toBe(n);
+    expect(table.values[0]).toBeInstanceOf(Float64Array);
+    expect(table.values[0]!.length).toBe(n);
+    expect(table.values[0]![n - 1]).toBe((n - 1) * 0.5);
+    const mixed = table.values[1] as (number | string | null)[];
+    expect(Array.isArray(mixed)).toBe(true);
+    expect(mixed.slice(0, 3)).toEqual([0, 1, 2]);
+    expect(mixed[n - 1]).toBe("dry");
+    expect(mixed.length).toBe(n);
+    expect(table.values[2]).toEqual(new Array(n).fill(null));
+  });
+
   it("names the line of a row with the wrong number of fields", () => {
     expect(() => parseDataTable("obs", "t,s\n1,2\n3\n", 10)).toThrow('data "obs", line 12: 1 fields but the header has 2; give one field per column');
   });

@@ -61,9 +61,28 @@ export const CSV_CHECKPOINT_RECORDS = 16384;
  * throwing); it is the only way this function throws.
  */
 export function readCsvRecords(text: string, separator: CsvSeparator, firstLine = 1, checkpoint?: () => void): CsvRecords {
-  const sep = separator.charCodeAt(0);
   const records: CsvRecord[] = [];
+  const problems = scanCsvRecords(text, separator, (fields, line) => records.push({ line, fields: fields.slice() }), firstLine, checkpoint);
+  return { records, problems };
+}
+
+/**
+ * Reads CSV text record by record, as readCsvRecords does, but hands each record to `onRecord` instead of keeping
+ * it: `fields` is one array reused for every record (copy what you keep), `line` the 1-based file line where the
+ * record starts. A reader of a million-line logger file keeps only what it needs, not a million records.
+ * Returns the syntax problems; `checkpoint` is called every CSV_CHECKPOINT_RECORDS records (it may throw).
+ */
+export function scanCsvRecords(
+  text: string,
+  separator: CsvSeparator,
+  onRecord: (fields: readonly string[], line: number) => void,
+  firstLine = 1,
+  checkpoint?: () => void,
+): CsvSyntaxProblem[] {
+  const sep = separator.charCodeAt(0);
   const problems: CsvSyntaxProblem[] = [];
+  const fields: string[] = [];
+  let count = 0;
   const n = text.length;
   let i = text.charCodeAt(0) === 0xfeff ? 1 : 0;
   let line = firstLine;
@@ -86,7 +105,7 @@ export function readCsvRecords(text: string, separator: CsvSeparator, firstLine 
 
   while (i < n) {
     const recordLine = line;
-    const fields: string[] = [];
+    fields.length = 0;
     let sawQuotedField = false;
     for (;;) {
       const fieldNumber = fields.length + 1;
@@ -173,9 +192,11 @@ export function readCsvRecords(text: string, separator: CsvSeparator, firstLine 
       break;
     }
     const blank = fields.length === 1 && fields[0] === "" && !sawQuotedField;
-    if (!blank && records.push({ line: recordLine, fields }) % CSV_CHECKPOINT_RECORDS === 0) checkpoint?.();
+    if (blank) continue;
+    onRecord(fields, recordLine);
+    if (++count % CSV_CHECKPOINT_RECORDS === 0) checkpoint?.();
   }
-  return { records, problems };
+  return problems;
 }
 
 /**

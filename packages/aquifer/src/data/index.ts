@@ -25,7 +25,7 @@ export type {
 } from "./observation-csv-options.js";
 export { CsvError, CsvProblemCode } from "./csv-problems.js";
 export type { CsvColumnRef, CsvProblem } from "./csv-problems.js";
-export { CSV_CHECKPOINT_RECORDS, readCsvRecords } from "./csv-records.js";
+export { CSV_CHECKPOINT_RECORDS, readCsvRecords, scanCsvRecords } from "./csv-records.js";
 export type { CsvRecord, CsvRecords, CsvSeparator, CsvSyntaxProblem } from "./csv-records.js";
 export { readIsoTimestamp, readUtcOffset } from "./iso-timestamp.js";
 export type { IsoTimestamp } from "./iso-timestamp.js";

@@ -16,8 +16,8 @@
 import { convert } from "../units/index.js";
 import { CsvError, CsvProblemCode, describeLocation, makeProblem } from "./csv-problems.js";
 import type { CsvColumnRef, CsvProblem } from "./csv-problems.js";
-import { CSV_CHECKPOINT_RECORDS, detectSeparator, offsetOfLine, readCsvRecords } from "./csv-records.js";
-import type { CsvRecord, CsvSeparator } from "./csv-records.js";
+import { CSV_CHECKPOINT_RECORDS, detectSeparator, offsetOfLine, scanCsvRecords } from "./csv-records.js";
+import type { CsvSeparator } from "./csv-records.js";
 import { decimalMarksIn, readDecimal } from "./decimal-numbers.js";
 import { TIMESTAMP_FORM, instantMs, readIsoTimestamp, readUtcOffset } from "./iso-timestamp.js";
 import type { IsoTimestamp } from "./iso-timestamp.js";
@@ -44,6 +44,17 @@ interface ReadRow {
   raw: number;
   timeMissing: boolean;
   valueMissing: boolean;
+}
+
+/**
+ * The data records as the import keeps them: per record its line, its number of fields and the texts of the time
+ * and level fields (empty when the record is too short), in columns, so a million-line file is four arrays.
+ */
+interface DataRows {
+  readonly lines: number[];
+  readonly widths: number[];
+  readonly timeTexts: string[];
+  readonly valueTexts: string[];
 }
 
 /** Everything resolved from the options before the rows are read. */
@@ -157,14 +168,15 @@ function findColumn(header: readonly string[], wanted: string, role: string, hea
 function chooseDecimalComma(
   options: ObservationCsvOptions,
   separator: CsvSeparator,
-  data: readonly CsvRecord[],
+  data: DataRows,
   numericColumns: readonly CsvColumnRef[],
   notes: string[],
 ): boolean {
   if (options.decimalComma !== undefined) return options.decimalComma;
   if (separator !== ";") return false;
+  const texts = numericColumns.map((c, i) => (i === numericColumns.length - 1 ? data.valueTexts : data.timeTexts));
   const fields = function* (): Generator<string> {
-    for (const record of data) for (const c of numericColumns) yield record.fields[c.index - 1] ?? "";
+    for (let r = 0; r < data.lines.length; r++) for (const column of texts) yield column[r]!;
   };
   const marks = decimalMarksIn(fields());
   if (marks === "point") {
@@ -217,21 +229,40 @@ export function parseObservationCsv(text: string, options: ObservationCsvOptions
   }
   if (options.separator === undefined && separator !== ",") notes.push(`field separator detected: ${SEPARATOR_NAMES[separator]}`);
 
-  const { records, problems: syntax } = readCsvRecords(body, separator, headerLine, checkpoint);
+  const found: { header?: { line: number; fields: string[] }; time: CsvColumnRef | null; value: CsvColumnRef | null } = { time: null, value: null };
+  const columnProblems: CsvProblem[] = [];
+  const data: DataRows = { lines: [], widths: [], timeTexts: [], valueTexts: [] };
+  const syntax = scanCsvRecords(
+    body,
+    separator,
+    (fields, line) => {
+      if (found.header === undefined) {
+        found.header = { line, fields: fields.slice() };
+        found.time = findColumn(found.header.fields, options.timeColumn, "time", line, columnProblems);
+        found.value = findColumn(found.header.fields, options.valueColumn, "value", line, columnProblems);
+        return;
+      }
+      if (found.time === null || found.value === null) return;
+      data.lines.push(line);
+      data.widths.push(fields.length);
+      data.timeTexts.push(fields[found.time.index - 1] ?? "");
+      data.valueTexts.push(fields[found.value.index - 1] ?? "");
+    },
+    headerLine,
+    checkpoint,
+  );
   for (const p of syntax) {
     problems.push(makeProblem(CsvProblemCode.syntax, { row: p.line }, `field ${p.field}: ${p.message}`, p.fix));
   }
-  const header = records[0];
+  const { header, time: timeColumn, value: valueColumn } = found;
   if (header === undefined) {
     throw new CsvError([
       makeProblem(CsvProblemCode.noHeader, { row: headerLine }, "the header line is blank", "set headerLine to the line that names the columns"),
     ]);
   }
-  const timeColumn = findColumn(header.fields, options.timeColumn, "time", header.line, problems);
-  const valueColumn = findColumn(header.fields, options.valueColumn, "value", header.line, problems);
+  problems.push(...columnProblems);
   if (timeColumn === null || valueColumn === null) throw new CsvError(problems);
-  const data = records.slice(1);
-  if (data.length === 0) {
+  if (data.lines.length === 0) {
     problems.push(
       makeProblem(CsvProblemCode.noData, { row: header.line }, "the header is not followed by any data rows", "give a file with readings below the header"),
     );
@@ -330,7 +361,7 @@ function firstNonBlankLine(text: string): number | null {
 
 /** Reads time and level from each record; pushes problems for ragged rows and unreadable fields. */
 function readRows(
-  data: readonly CsvRecord[],
+  data: DataRows,
   width: number,
   separator: CsvSeparator,
   timeColumn: CsvColumnRef,
@@ -343,45 +374,47 @@ function readRows(
   const rows: ReadRow[] = [];
   const unoffset: number[] = [];
   const markFix = decimalComma ? "set decimalComma: false if the file uses decimal points" : "set decimalComma: true if the file uses decimal commas";
-  for (const record of data) {
-    if (record.fields.length !== width) {
+  for (let r = 0; r < data.lines.length; r++) {
+    const line = data.lines[r]!;
+    const fieldCount = data.widths[r]!;
+    if (fieldCount !== width) {
       const hint =
-        separator === "," && record.fields.length > width
+        separator === "," && fieldCount > width
           ? "; a decimal comma in an unquoted field splits it in two: quote such numbers or use ';' as separator"
           : "";
       problems.push(
         makeProblem(
           CsvProblemCode.raggedRow,
-          { row: record.line },
-          `the record has ${record.fields.length} fields but the header has ${width}`,
+          { row: line },
+          `the record has ${fieldCount} fields but the header has ${width}`,
           `give every record ${width} fields (RFC 4180 section 2.4)${hint}`,
         ),
       );
       continue;
     }
-    const timeText = record.fields[timeColumn.index - 1]!;
-    const valueText = record.fields[valueColumn.index - 1]!;
-    const row: ReadRow = { row: record.line, time: Number.NaN, raw: Number.NaN, timeMissing: false, valueMissing: false };
+    const timeText = data.timeTexts[r]!;
+    const valueText = data.valueTexts[r]!;
+    const row: ReadRow = { row: line, time: Number.NaN, raw: Number.NaN, timeMissing: false, valueMissing: false };
     if (settings.timeFormat === "elapsed") {
       const t = readDecimal(timeText, decimalComma);
       if (t.ok) row.time = t.value;
       else if (isMissing(timeText, settings)) row.timeMissing = true;
-      else problems.push(nonNumeric(record.line, timeColumn, t.reason, markFix));
+      else problems.push(nonNumeric(line, timeColumn, t.reason, markFix));
     } else {
       const stamp = readIsoTimestamp(timeText);
-      if (stamp.ok && stamp.value.offsetMinutes === null && settings.fallbackOffsetMinutes === null) unoffset.push(record.line);
+      if (stamp.ok && stamp.value.offsetMinutes === null && settings.fallbackOffsetMinutes === null) unoffset.push(line);
       else if (stamp.ok) row.time = elapsedFromTimestamp(stamp.value, settings);
       else if (isMissing(timeText, settings)) row.timeMissing = true;
       else {
         problems.push(
-          makeProblem(CsvProblemCode.badTimestamp, { row: record.line, column: timeColumn }, stamp.reason, `write the time as ${TIMESTAMP_FORM}`),
+          makeProblem(CsvProblemCode.badTimestamp, { row: line, column: timeColumn }, stamp.reason, `write the time as ${TIMESTAMP_FORM}`),
         );
       }
     }
     const v = readDecimal(valueText, decimalComma);
     if (v.ok) row.raw = v.value;
     else if (isMissing(valueText, settings)) row.valueMissing = true;
-    else problems.push(nonNumeric(record.line, valueColumn, v.reason, markFix));
+    else problems.push(nonNumeric(line, valueColumn, v.reason, markFix));
     if (rows.push(row) % CSV_CHECKPOINT_RECORDS === 0) checkpoint?.();
   }
   if (unoffset.length > 0) {
