@@ -5,22 +5,25 @@
  */
 import { WriteError } from "./atomic-write.js";
 import { EXIT, InputError, UsageError } from "./errors.js";
-import { EXPORT_HELP, exportCommand } from "./commands/export.js";
-import { NEW_HELP, newCommand } from "./commands/new.js";
-import { PIN_HELP, pinCommand } from "./commands/pin.js";
-import { RUN_HELP, runCommand } from "./commands/run.js";
-import { SERVE_HELP, serveCommand } from "./commands/serve.js";
-import { VERIFY_HELP, verifyCommand } from "./commands/verify.js";
 import type { Io } from "./io.js";
 import { TOOL_VERSION } from "./versions.js";
 
-const COMMANDS: Record<string, { help: string; run: (argv: readonly string[], io: Io) => Promise<number> }> = {
-  run: { help: RUN_HELP, run: runCommand },
-  verify: { help: VERIFY_HELP, run: verifyCommand },
-  new: { help: NEW_HELP, run: newCommand },
-  export: { help: EXPORT_HELP, run: exportCommand },
-  pin: { help: PIN_HELP, run: pinCommand },
-  serve: { help: SERVE_HELP, run: serveCommand },
+interface Command {
+  help: string;
+  run: (argv: readonly string[], io: Io) => Promise<number>;
+}
+
+/**
+ * Each command is loaded when it is named, so `conebook verify` reads the document format and the comparison, and
+ * not the report builder, the server or the aquifer library (the run worker loads what runs the cells).
+ */
+const COMMANDS: Record<string, () => Promise<Command>> = {
+  run: () => import("./commands/run.js").then((m) => ({ help: m.RUN_HELP, run: m.runCommand })),
+  verify: () => import("./commands/verify.js").then((m) => ({ help: m.VERIFY_HELP, run: m.verifyCommand })),
+  new: () => import("./commands/new.js").then((m) => ({ help: m.NEW_HELP, run: m.newCommand })),
+  export: () => import("./commands/export.js").then((m) => ({ help: m.EXPORT_HELP, run: m.exportCommand })),
+  pin: () => import("./commands/pin.js").then((m) => ({ help: m.PIN_HELP, run: m.pinCommand })),
+  serve: () => import("./commands/serve.js").then((m) => ({ help: m.SERVE_HELP, run: m.serveCommand })),
 };
 
 export const MAIN_HELP = `Usage: conebook COMMAND [options]
@@ -47,11 +50,12 @@ export async function main(argv: readonly string[], io: Io): Promise<number> {
     io.out(`conebook ${TOOL_VERSION}`);
     return EXIT.ok;
   }
-  const command = COMMANDS[name];
-  if (!command) {
+  const load = Object.hasOwn(COMMANDS, name) ? COMMANDS[name] : undefined;
+  if (!load) {
     io.err(`conebook: unknown command ${JSON.stringify(name)}; the commands are ${Object.keys(COMMANDS).join(", ")} (see conebook --help)`);
     return EXIT.inputError;
   }
+  const command = await load();
   if (rest.includes("--help") || rest.includes("-h")) {
     io.out(command.help);
     return EXIT.ok;
