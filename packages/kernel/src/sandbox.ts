@@ -25,6 +25,7 @@ import { HostTimeLimitError, withHostDeadline } from "./host-budget.js";
 import { HOST_RESERVE_MB, MAX_ELEMENTS_PER_CALL, MAX_PROXY_KEYS, MAX_STRING_LENGTH, SANDBOX_BASE_MB, TEXT_REFERENCE_MIN_LENGTH, WORK_CHECK_UNITS } from "./limits.js";
 import type { DataTable } from "./data-cells.js";
 import { GUEST_PRELUDE, GUEST_PRELUDE_FILENAME } from "./guest-prelude.js";
+import { useSyncHostCalls } from "./sync-host-calls.js";
 import { ArgumentError } from "./validators.js";
 import type { WasmMemory } from "./wasm-memory.js";
 import { decodeWireValue, encodeHostValue, type WireValue } from "./wire.js";
@@ -137,6 +138,7 @@ export class Sandbox {
     this.runtime.setMaxStackSize(STACK_LIMIT_BYTES);
     this.runtime.setInterruptHandler(() => this.overdue());
     this.context = this.runtime.newContext();
+    useSyncHostCalls(this.context);
     try {
       this.internals = this.installPrelude(options.seed);
     } catch (e) {
