@@ -4,10 +4,10 @@
  * throws HostTimeLimitError, which the sandbox turns into the cell's time-limit stop. Host calls are synchronous
  * and never nested, so the deadline of the call in progress is one module-level value.
  */
-import type { DrawdownModel } from "@conebook/aquifer";
+import { ComputationStopped, type DrawdownModel } from "@conebook/aquifer";
 
-/** A host call reached the deadline of the cell that made it. */
-export class HostTimeLimitError extends Error {
+/** A host call reached the deadline of the cell that made it (a ComputationStopped, which library code passes on). */
+export class HostTimeLimitError extends ComputationStopped {
   override readonly name = "HostTimeLimitError";
 }
 

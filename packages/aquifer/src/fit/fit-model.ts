@@ -4,6 +4,7 @@
  * diagnostics, checks of the data and of the model's validity, correlations and information criteria.
  */
 
+import { isComputationStopped } from "../numerics/computation-stopped.js";
 import { modelSpecOf, type DrawdownModel, type ModelSpec } from "../models/index.js";
 import { correlatedCovariance, type CorrelatedCovariance } from "./correlated-covariance.js";
 import { checkObservations, checkTrend } from "./data-checks.js";
@@ -459,6 +460,7 @@ function fitOnce(
     try {
       weightedResiduals(model, wells, toNative(space, theta0, new Float64Array(names.length)), new Float64Array(n), probe);
     } catch (error) {
+      if (isComputationStopped(error)) throw error;
       throw new FitInputError(`fitModel: the model cannot be evaluated at the start values: ${error instanceof Error ? error.message : String(error)}`);
     }
     for (const w of wells) {

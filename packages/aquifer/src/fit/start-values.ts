@@ -13,6 +13,7 @@
  * Derived values outside the bounds are moved onto the nearest bound.
  */
 
+import { isComputationStopped } from "../numerics/computation-stopped.js";
 import { startingValues, type DrawdownModel } from "../models/index.js";
 import type { PackedWell } from "./observations.js";
 import { weightedResiduals } from "./observations.js";
@@ -137,6 +138,7 @@ export function deriveStartValues(
         method = "cooper-jacob";
       }
     } catch (error) {
+      if (isComputationStopped(error)) throw error;
       notes.push(`No start from the data (${error instanceof Error ? error.message : String(error)}); using a grid search.`);
     }
   }

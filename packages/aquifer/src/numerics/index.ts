@@ -10,3 +10,4 @@ export type { DeHoogOptions } from "./deHoog.js";
 export { deHoog } from "./deHoog.js";
 export { besselK0Complex } from "./besselK0Complex.js";
 export { portableCos, portableExp10, portablePow, portableSin } from "./portable-math.js";
+export { ComputationStopped, isComputationStopped } from "./computation-stopped.js";
