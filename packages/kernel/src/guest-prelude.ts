@@ -25,7 +25,7 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   const push = Function.prototype.call.bind(Array.prototype.push);
   const callFn = Function.prototype.call.bind(Function.prototype.call);
   const hasOwn = Function.prototype.call.bind(Object.prototype.hasOwnProperty);
-  const indirectEval = eval, construct = Reflect.construct;
+  const indirectEval = eval, construct = Reflect.construct, reflectApply = Reflect.apply;
   const DISPLAY = Sym("conebook.display");
   // The CSV texts of the data tables a cell has read, by table index: passed back, one crosses as a reference.
   const texts = [], TEXT_MIN = config.textReferenceMin;
@@ -304,6 +304,23 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     return root;
   }
 
+  // Calls host function fn with the leading arguments in head (a name, or nothing) then the wire text and each of
+  // its buffers as an argument of its own: the host takes the arguments as they come, with no property reads.
+  function sendWire(fn, head, wire) {
+    const b = wire[1], n = b.length;
+    if (head === undefined) {
+      if (n === 0) return fn(wire[0]);
+      if (n === 1) return fn(wire[0], b[0]);
+    } else {
+      if (n === 0) return fn(head, wire[0]);
+      if (n === 1) return fn(head, wire[0], b[0]);
+    }
+    const args = head === undefined ? [wire[0]] : [head, wire[0]];
+    const k = args.length;
+    for (let i = 0; i < n; i++) args[k + i] = b[i];
+    return reflectApply(fn, undefined, args);
+  }
+
   // The bridge: one guest function per allow-listed host function, sending its arguments as wire data.
   function bridgeFunction(guestName, hostFn) {
     const where = guestName + ": argument list";
@@ -311,7 +328,7 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
       const args = [];
       for (let i = 0; i < arguments.length; i++) args[i] = arguments[i];
       const wire = encode(args, where);
-      return decode(hostFn(guestName, wire[0], wire[1]));
+      return decode(sendWire(hostFn, guestName, wire));
     };
     defineProperty(f, "name", { value: guestName.slice(guestName.lastIndexOf(".") + 1) });
     return freeze(f);
@@ -373,7 +390,7 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
       shownSet(shownIn, v, cellNumber);
     }
     const w = encode(toDisplay(v), where);
-    host.emit(w[0], w[1]);
+    sendWire(host.emit, undefined, w);
   }
   function show(v) {
     if (arguments.length === 0) throw new TypeErr("show: give the value to show, e.g. show(T)");
@@ -440,7 +457,7 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
 
   function control(name, options) {
     const w = encode([name, options], "control: argument list");
-    return decode(host.control(w[0], w[1]));
+    return decode(sendWire(host.control, undefined, w));
   }
   freeze(control);
 

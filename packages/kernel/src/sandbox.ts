@@ -178,9 +178,9 @@ export class Sandbox {
     const ctx = this.context;
     const preludeFn = ctx.unwrapResult(ctx.evalCode(GUEST_PRELUDE, GUEST_PRELUDE_FILENAME, { type: "global", strict: true }));
     const host = ctx.newObject();
-    const call = ctx.newFunction("call", (nameH, jsonH, buffersH) => this.hostCall(nameH, jsonH, buffersH));
-    const emit = ctx.newFunction("emit", (jsonH, buffersH) => this.hostEmit(jsonH, buffersH));
-    const control = ctx.newFunction("control", (jsonH, buffersH) => this.hostControl(jsonH, buffersH));
+    const call = ctx.newFunction("call", (nameH, jsonH, ...bufferHs) => this.hostCall(nameH, jsonH, bufferHs));
+    const emit = ctx.newFunction("emit", (jsonH, ...bufferHs) => this.hostEmit(jsonH, bufferHs));
+    const control = ctx.newFunction("control", (jsonH, ...bufferHs) => this.hostControl(jsonH, bufferHs));
     const overdue = ctx.newFunction("overdue", () => (this.overdue() ? ctx.true : ctx.false));
     const part = ctx.newFunction("part", (indexH, whichH) => this.hostTablePart(indexH, whichH));
     ctx.setProp(host, "call", call);
@@ -211,23 +211,15 @@ export class Sandbox {
     return ctx.unwrapResult(result);
   }
 
-  /** Reads wire data the guest sent; its buffers are copied out of QuickJS memory. */
-  private readWire(jsonH: QuickJSHandle, buffersH: QuickJSHandle): WireValue {
+  /** Reads wire data the guest sent (its text, then each buffer as an argument); buffers are copied out of QuickJS memory. */
+  private readWire(jsonH: QuickJSHandle, bufferHs: readonly QuickJSHandle[]): WireValue {
     const ctx = this.context;
     const json = ctx.getString(jsonH);
     const buffers: ArrayBuffer[] = [];
-    const lengthH = ctx.getProp(buffersH, "length");
-    const n = ctx.typeof(lengthH) === "number" ? ctx.getNumber(lengthH) : 0;
-    lengthH.dispose();
-    for (let i = 0; i < n; i++) {
-      const h = ctx.getProp(buffersH, i);
-      try {
-        const bytes = ctx.getArrayBuffer(h);
-        buffers.push(bytes.value.slice().buffer as ArrayBuffer);
-        bytes.dispose();
-      } finally {
-        h.dispose();
-      }
+    for (const h of bufferHs) {
+      const bytes = ctx.getArrayBuffer(h);
+      buffers.push(bytes.value.slice().buffer as ArrayBuffer);
+      bytes.dispose();
     }
     return { json, buffers };
   }
@@ -254,13 +246,13 @@ export class Sandbox {
     return out;
   }
 
-  private hostCall(nameH: QuickJSHandle, jsonH: QuickJSHandle, buffersH: QuickJSHandle) {
+  private hostCall(nameH: QuickJSHandle, jsonH: QuickJSHandle, bufferHs: readonly QuickJSHandle[]) {
     const ctx = this.context;
     const guestName = ctx.getString(nameH);
     const entry = Object.hasOwn(BRIDGE_API, guestName) ? BRIDGE_API[guestName] : undefined;
     try {
       if (!entry) throw new ArgumentError(`${guestName} is not an available function`);
-      const args = decodeWireValue(this.readWire(jsonH, buffersH), this.tableTexts) as unknown[];
+      const args = decodeWireValue(this.readWire(jsonH, bufferHs), this.tableTexts) as unknown[];
       if (args.length > entry.args.length) {
         throw new ArgumentError(`${guestName} takes ${entry.args.length} argument(s) (${entry.args.map((a) => a.name).join(", ")}), got ${args.length}`);
       }
@@ -305,18 +297,18 @@ export class Sandbox {
     }
   }
 
-  private hostEmit(jsonH: QuickJSHandle, buffersH: QuickJSHandle) {
+  private hostEmit(jsonH: QuickJSHandle, bufferHs: readonly QuickJSHandle[]) {
     try {
-      this.hooks.emit(decodeWireValue(this.readWire(jsonH, buffersH)));
+      this.hooks.emit(decodeWireValue(this.readWire(jsonH, bufferHs)));
       return undefined;
     } catch (e) {
       return { error: this.context.newError(errorMessage(e)) };
     }
   }
 
-  private hostControl(jsonH: QuickJSHandle, buffersH: QuickJSHandle) {
+  private hostControl(jsonH: QuickJSHandle, bufferHs: readonly QuickJSHandle[]) {
     try {
-      const [name, options] = decodeWireValue(this.readWire(jsonH, buffersH)) as unknown[];
+      const [name, options] = decodeWireValue(this.readWire(jsonH, bufferHs)) as unknown[];
       return this.newWire(this.hooks.control(name, options));
     } catch (e) {
       const { message } = errorMessage(e);
@@ -422,11 +414,18 @@ export class Sandbox {
     }
     const jsonH = ctx.getProp(h, 0);
     const buffersH = ctx.getProp(h, 1);
-    const wire = this.readWire(jsonH, buffersH);
-    jsonH.dispose();
-    buffersH.dispose();
-    h.dispose();
-    return decodeWireValue(wire);
+    const lengthH = ctx.getProp(buffersH, "length");
+    const n = ctx.typeof(lengthH) === "number" ? ctx.getNumber(lengthH) : 0;
+    lengthH.dispose();
+    const bufferHs = Array.from({ length: n }, (_, i) => ctx.getProp(buffersH, i));
+    try {
+      return decodeWireValue(this.readWire(jsonH, bufferHs));
+    } finally {
+      for (const b of bufferHs) b.dispose();
+      jsonH.dispose();
+      buffersH.dispose();
+      h.dispose();
+    }
   }
 
   /**
