@@ -21,6 +21,7 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
   const isFinite = Number.isFinite;
   const F64A = Float64Array, TypeErr = TypeError, Err = Error, Sym = Symbol;
   const sliceBuffer = Function.prototype.call.bind(ArrayBuffer.prototype.slice);
+  const bufferLength = Function.prototype.call.bind(Object.getOwnPropertyDescriptor(ArrayBuffer.prototype, "byteLength").get);
   const sliceArray = Function.prototype.call.bind(Array.prototype.slice);
   const push = Function.prototype.call.bind(Array.prototype.push);
   const callFn = Function.prototype.call.bind(Function.prototype.call);
@@ -213,7 +214,12 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
       if (!array) {
         if (isView(v)) {
           if (!(v instanceof F64A)) throw new TypeErr(fieldName(where, key) + " is " + describe(v) + "; use a Float64Array or a plain array of numbers");
-          buffers[buffers.length] = sliceBuffer(v.buffer, v.byteOffset, v.byteOffset + v.byteLength);
+          // The host copies the bytes before any guest code runs again, so a buffer the array spans whole is sent
+          // as it is; a view into part of a buffer sends a copy of its part only.
+          // (bufferLength, the intrinsic getter, throws unless whole is an ArrayBuffer, whatever a cell did to
+          // the prototypes.)
+          const whole = v.buffer, offset = v.byteOffset, length = v.byteLength;
+          buffers[buffers.length] = offset === 0 && length === bufferLength(whole) ? whole : sliceBuffer(whole, offset, offset + length);
           return patch(depth, buffers.length - 1);
         }
         const p = getProto(v);

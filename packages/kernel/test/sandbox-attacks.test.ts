@@ -262,6 +262,12 @@ const ATTACKS: Attack[] = [
   { category: "argument traps", name: "a Float64Array claiming a larger length and byteLength", expected: "harmless",
     source: `const a = new Float64Array([1, 2]); Object.defineProperty(a, "length", { value: 1e6 }); Object.defineProperty(a, "byteLength", { value: 8e6 }); aq.theisTypeCurve(a).W.length`,
     value: 2 },
+  { category: "argument traps", name: "a Float64Array whose buffer getter returns a plain object", expected: "refused",
+    source: `const a = new Float64Array([1, 2]); Object.defineProperty(a, "buffer", { get() { return { byteLength: 16 } } }); aq.convertArray(a, "m", "ft")`,
+    message: /^TypeError: /, },
+  { category: "argument traps", name: "a Float64Array whose buffer getter returns a larger buffer", expected: "harmless",
+    source: `const a = new Float64Array([1, 2]); const big = new Float64Array([3, 4, 5, 6]).buffer; Object.defineProperty(a, "buffer", { get() { return big } }); Array.from(aq.convertArray(a, "m", "m"))`,
+    value: [3, 4], },
   { category: "argument traps", name: "a Float64Array view into the middle of a buffer", expected: "harmless",
     source: `const r = aq.theisTypeCurve(new Float64Array([9, 1, 2, 9]).subarray(1, 3)); [r.uInverse.length, r.uInverse[0], r.uInverse[1]]`, value: [2, 1, 2] },
 

@@ -82,11 +82,17 @@ export function convert(value: number, from: string | Unit, to: string | Unit): 
  */
 export function convertArray(values: ArrayLike<number>, from: string | Unit, to: string | Unit): Float64Array {
   const [source, target] = checkedPair(from, to);
-  const out = new Float64Array(values.length);
-  if (source.factor === target.factor) {
-    for (let i = 0; i < values.length; i++) out[i] = values[i];
+  const n = values.length;
+  const out = new Float64Array(n);
+  const a = source.factor;
+  const b = target.factor;
+  if (a === b) {
+    if (values instanceof Float64Array) out.set(values);
+    else for (let i = 0; i < n; i++) out[i] = values[i]!;
+  } else if (values instanceof Float64Array) {
+    for (let i = 0; i < n; i++) out[i] = (values[i]! * a) / b;
   } else {
-    for (let i = 0; i < values.length; i++) out[i] = (values[i] * source.factor) / target.factor;
+    for (let i = 0; i < n; i++) out[i] = (values[i]! * a) / b;
   }
   return out;
 }
