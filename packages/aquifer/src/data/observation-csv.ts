@@ -16,7 +16,7 @@
 import { convert } from "../units/index.js";
 import { CsvError, CsvProblemCode, describeLocation, makeProblem } from "./csv-problems.js";
 import type { CsvColumnRef, CsvProblem } from "./csv-problems.js";
-import { CSV_CHECKPOINT_RECORDS, detectSeparator, offsetOfLine, scanCsvRecords } from "./csv-records.js";
+import { detectSeparator, offsetOfLine, scanCsvRecords } from "./csv-records.js";
 import type { CsvSeparator } from "./csv-records.js";
 import { decimalMarksIn, readDecimal } from "./decimal-numbers.js";
 import { TIMESTAMP_FORM, instantMs, readIsoTimestamp, readUtcOffset } from "./iso-timestamp.js";
@@ -33,7 +33,7 @@ const SEPARATOR_NAMES: Record<CsvSeparator, string> = { ",": "comma", ";": "semi
 
 /** What a host may add to an import (a cell cannot): a time budget. */
 export interface ImportHostOptions {
-  /** Called every CSV_CHECKPOINT_RECORDS records and rows; a host stops a long import at its time limit by throwing. */
+  /** Called every CSV_CHECKPOINT_RECORDS records (csv-records.ts); a host stops a long import at its time limit by throwing. */
   readonly checkpoint?: () => void;
 }
 
@@ -44,17 +44,6 @@ interface ReadRow {
   raw: number;
   timeMissing: boolean;
   valueMissing: boolean;
-}
-
-/**
- * The data records as the import keeps them: per record its line, its number of fields and the texts of the time
- * and level fields (empty when the record is too short), in columns, so a million-line file is four arrays.
- */
-interface DataRows {
-  readonly lines: number[];
-  readonly widths: number[];
-  readonly timeTexts: string[];
-  readonly valueTexts: string[];
 }
 
 /** Everything resolved from the options before the rows are read. */
@@ -165,26 +154,42 @@ function findColumn(header: readonly string[], wanted: string, role: string, hea
 }
 
 /** Chooses the decimal mark: the option when given, else commas for ';'-files unless only points occur. */
-function chooseDecimalComma(
-  options: ObservationCsvOptions,
-  separator: CsvSeparator,
-  data: DataRows,
-  numericColumns: readonly CsvColumnRef[],
-  notes: string[],
-): boolean {
+function chooseDecimalComma(options: ObservationCsvOptions, separator: CsvSeparator, numericTexts: readonly string[], notes: string[]): boolean {
   if (options.decimalComma !== undefined) return options.decimalComma;
   if (separator !== ";") return false;
-  const texts = numericColumns.map((c, i) => (i === numericColumns.length - 1 ? data.valueTexts : data.timeTexts));
-  const fields = function* (): Generator<string> {
-    for (let r = 0; r < data.lines.length; r++) for (const column of texts) yield column[r]!;
-  };
-  const marks = decimalMarksIn(fields());
+  const marks = decimalMarksIn(numericTexts);
   if (marks === "point") {
     notes.push("semicolon-separated file with decimal points only: numbers read with a decimal point");
     return false;
   }
   notes.push("semicolon-separated file: numbers read with a decimal comma (set decimalComma to choose)");
   return true;
+}
+
+/**
+ * The texts of the numeric fields of every data record (the level, and the time when it is elapsed time), record by
+ * record, for choosing the decimal mark of a semicolon-separated file; empty when a column is not found (the
+ * import then stops on that).
+ */
+function numericFieldTexts(body: string, separator: CsvSeparator, headerLine: number, options: ObservationCsvOptions, settings: Settings): string[] {
+  const texts: string[] = [];
+  let indexes: number[] | null | undefined;
+  scanCsvRecords(
+    body,
+    separator,
+    (fields, line) => {
+      if (indexes === undefined) {
+        const ignored: CsvProblem[] = [];
+        const time = findColumn(fields, options.timeColumn, "time", line, ignored);
+        const value = findColumn(fields, options.valueColumn, "value", line, ignored);
+        indexes = time === null || value === null ? null : settings.timeFormat === "elapsed" ? [time.index - 1, value.index - 1] : [value.index - 1];
+        return;
+      }
+      if (indexes !== null) for (const i of indexes) texts.push(fields[i] ?? "");
+    },
+    headerLine,
+  );
+  return texts;
 }
 
 /**
@@ -229,9 +234,14 @@ export function parseObservationCsv(text: string, options: ObservationCsvOptions
   }
   if (options.separator === undefined && separator !== ",") notes.push(`field separator detected: ${SEPARATOR_NAMES[separator]}`);
 
-  const found: { header?: { line: number; fields: string[] }; time: CsvColumnRef | null; value: CsvColumnRef | null } = { time: null, value: null };
+  // The decimal mark comes from the options or the separator; only a semicolon-separated file with no
+  // decimalComma option needs its numeric fields looked at first (numericFieldTexts, a pass of its own).
+  const numericTexts = options.decimalComma === undefined && separator === ";" ? numericFieldTexts(body, separator, headerLine, options, settings) : [];
+  const decimalComma = chooseDecimalComma(options, separator, numericTexts, notes);
+
+  const found: { header?: { line: number; fields: string[] }; time: CsvColumnRef | null; value: CsvColumnRef | null; reader?: RowReader } = { time: null, value: null };
   const columnProblems: CsvProblem[] = [];
-  const data: DataRows = { lines: [], widths: [], timeTexts: [], valueTexts: [] };
+  let dataRecords = 0;
   const syntax = scanCsvRecords(
     body,
     separator,
@@ -240,13 +250,13 @@ export function parseObservationCsv(text: string, options: ObservationCsvOptions
         found.header = { line, fields: fields.slice() };
         found.time = findColumn(found.header.fields, options.timeColumn, "time", line, columnProblems);
         found.value = findColumn(found.header.fields, options.valueColumn, "value", line, columnProblems);
+        if (found.time !== null && found.value !== null) {
+          found.reader = new RowReader(fields.length, separator, found.time, found.value, decimalComma, settings);
+        }
         return;
       }
-      if (found.time === null || found.value === null) return;
-      data.lines.push(line);
-      data.widths.push(fields.length);
-      data.timeTexts.push(fields[found.time.index - 1] ?? "");
-      data.valueTexts.push(fields[found.value.index - 1] ?? "");
+      dataRecords++;
+      found.reader?.read(fields, line);
     },
     headerLine,
     checkpoint,
@@ -254,24 +264,22 @@ export function parseObservationCsv(text: string, options: ObservationCsvOptions
   for (const p of syntax) {
     problems.push(makeProblem(CsvProblemCode.syntax, { row: p.line }, `field ${p.field}: ${p.message}`, p.fix));
   }
-  const { header, time: timeColumn, value: valueColumn } = found;
+  const { header, time: timeColumn, value: valueColumn, reader } = found;
   if (header === undefined) {
     throw new CsvError([
       makeProblem(CsvProblemCode.noHeader, { row: headerLine }, "the header line is blank", "set headerLine to the line that names the columns"),
     ]);
   }
   problems.push(...columnProblems);
-  if (timeColumn === null || valueColumn === null) throw new CsvError(problems);
-  if (data.lines.length === 0) {
+  if (timeColumn === null || valueColumn === null || reader === undefined) throw new CsvError(problems);
+  if (dataRecords === 0) {
     problems.push(
       makeProblem(CsvProblemCode.noData, { row: header.line }, "the header is not followed by any data rows", "give a file with readings below the header"),
     );
     throw new CsvError(problems);
   }
-  const numericColumns = settings.timeFormat === "elapsed" ? [timeColumn, valueColumn] : [valueColumn];
-  const decimalComma = chooseDecimalComma(options, separator, data, numericColumns, notes);
-
-  const rows = readRows(data, header.fields.length, separator, timeColumn, valueColumn, decimalComma, settings, problems, checkpoint);
+  problems.push(...reader.finish());
+  const rows = reader.rows;
   const excluded: ExcludedPoint[] = [];
   const kept = applyRowPolicies(rows, options, settings, timeColumn, valueColumn, excluded, problems, notes);
   const ordered = orderByTime(kept, options.outOfOrder ?? "refuse", settings.timeUnit, timeColumn, problems, notes);
@@ -359,27 +367,34 @@ function firstNonBlankLine(text: string): number | null {
   }
 }
 
-/** Reads time and level from each record; pushes problems for ragged rows and unreadable fields. */
-function readRows(
-  data: DataRows,
-  width: number,
-  separator: CsvSeparator,
-  timeColumn: CsvColumnRef,
-  valueColumn: CsvColumnRef,
-  decimalComma: boolean,
-  settings: Settings,
-  problems: CsvProblem[],
-  checkpoint: (() => void) | undefined,
-): ReadRow[] {
-  const rows: ReadRow[] = [];
-  const unoffset: number[] = [];
-  const markFix = decimalComma ? "set decimalComma: false if the file uses decimal points" : "set decimalComma: true if the file uses decimal commas";
-  for (let r = 0; r < data.lines.length; r++) {
-    const line = data.lines[r]!;
-    const fieldCount = data.widths[r]!;
+/** Reads time and level from each data record as it is scanned; collects problems for ragged rows and unreadable fields. */
+class RowReader {
+  readonly rows: ReadRow[] = [];
+  private readonly problems: CsvProblem[] = [];
+  private readonly unoffset: number[] = [];
+  private readonly markFix: string;
+  private readonly timeIndex: number;
+  private readonly valueIndex: number;
+
+  constructor(
+    private readonly width: number,
+    private readonly separator: CsvSeparator,
+    private readonly timeColumn: CsvColumnRef,
+    private readonly valueColumn: CsvColumnRef,
+    private readonly decimalComma: boolean,
+    private readonly settings: Settings,
+  ) {
+    this.markFix = decimalComma ? "set decimalComma: false if the file uses decimal points" : "set decimalComma: true if the file uses decimal commas";
+    this.timeIndex = timeColumn.index - 1;
+    this.valueIndex = valueColumn.index - 1;
+  }
+
+  read(fields: readonly string[], line: number): void {
+    const { width, settings, problems, decimalComma, markFix } = this;
+    const fieldCount = fields.length;
     if (fieldCount !== width) {
       const hint =
-        separator === "," && fieldCount > width
+        this.separator === "," && fieldCount > width
           ? "; a decimal comma in an unquoted field splits it in two: quote such numbers or use ';' as separator"
           : "";
       problems.push(
@@ -390,45 +405,50 @@ function readRows(
           `give every record ${width} fields (RFC 4180 section 2.4)${hint}`,
         ),
       );
-      continue;
+      return;
     }
-    const timeText = data.timeTexts[r]!;
-    const valueText = data.valueTexts[r]!;
+    const timeText = fields[this.timeIndex]!;
+    const valueText = fields[this.valueIndex]!;
     const row: ReadRow = { row: line, time: Number.NaN, raw: Number.NaN, timeMissing: false, valueMissing: false };
     if (settings.timeFormat === "elapsed") {
       const t = readDecimal(timeText, decimalComma);
       if (t.ok) row.time = t.value;
       else if (isMissing(timeText, settings)) row.timeMissing = true;
-      else problems.push(nonNumeric(line, timeColumn, t.reason, markFix));
+      else problems.push(nonNumeric(line, this.timeColumn, t.reason, markFix));
     } else {
       const stamp = readIsoTimestamp(timeText);
-      if (stamp.ok && stamp.value.offsetMinutes === null && settings.fallbackOffsetMinutes === null) unoffset.push(line);
+      if (stamp.ok && stamp.value.offsetMinutes === null && settings.fallbackOffsetMinutes === null) this.unoffset.push(line);
       else if (stamp.ok) row.time = elapsedFromTimestamp(stamp.value, settings);
       else if (isMissing(timeText, settings)) row.timeMissing = true;
       else {
         problems.push(
-          makeProblem(CsvProblemCode.badTimestamp, { row: line, column: timeColumn }, stamp.reason, `write the time as ${TIMESTAMP_FORM}`),
+          makeProblem(CsvProblemCode.badTimestamp, { row: line, column: this.timeColumn }, stamp.reason, `write the time as ${TIMESTAMP_FORM}`),
         );
       }
     }
     const v = readDecimal(valueText, decimalComma);
     if (v.ok) row.raw = v.value;
     else if (isMissing(valueText, settings)) row.valueMissing = true;
-    else problems.push(nonNumeric(line, valueColumn, v.reason, markFix));
-    if (rows.push(row) % CSV_CHECKPOINT_RECORDS === 0) checkpoint?.();
+    else problems.push(nonNumeric(line, this.valueColumn, v.reason, markFix));
+    this.rows.push(row);
   }
-  if (unoffset.length > 0) {
-    const others = unoffset.length > 1 ? ` (and ${count(unoffset.length - 1, "more row")})` : "";
-    problems.push(
-      makeProblem(
-        CsvProblemCode.missingUtcOffset,
-        { row: unoffset[0]!, column: timeColumn },
-        `the timestamp has no UTC offset${others}, so its instant depends on a clock setting the file does not state`,
-        "add offsets to the timestamps (e.g. '2026-03-04T08:00:00+01:00'), or set assumedUtcOffset to the offset the logger clock kept (e.g. '+01:00' or 'Z')",
-      ),
-    );
+
+  /** The problems found, in row order, with the missing-offset problem (naming its first row) last. */
+  finish(): CsvProblem[] {
+    const { unoffset } = this;
+    if (unoffset.length > 0) {
+      const others = unoffset.length > 1 ? ` (and ${count(unoffset.length - 1, "more row")})` : "";
+      this.problems.push(
+        makeProblem(
+          CsvProblemCode.missingUtcOffset,
+          { row: unoffset[0]!, column: this.timeColumn },
+          `the timestamp has no UTC offset${others}, so its instant depends on a clock setting the file does not state`,
+          "add offsets to the timestamps (e.g. '2026-03-04T08:00:00+01:00'), or set assumedUtcOffset to the offset the logger clock kept (e.g. '+01:00' or 'Z')",
+        ),
+      );
+    }
+    return this.problems;
   }
-  return rows;
 }
 
 function isMissing(text: string, settings: Settings): boolean {
