@@ -147,10 +147,14 @@ export function papadopulosCooperModel(well: WellboreGeometry): PapadopulosCoope
     validity: [
       "Any time t > 0; at early time the pumped well follows pure casing storage s = Q t / (pi rc^2), at late " +
         "time the Theis solution at r = rw plus Q Sk / (2 pi T).",
-      "Well-bore storage affects the pumped well until roughly t = 25 rc^2 / T (Papadopulos and Cooper 1967, " +
-        "from memory); with skin the effect lasts longer.",
-      "Numerical accuracy of the default inversion (N = 12 Stehfest terms): 5e-5 relative or better against " +
-        "mpmath at 46 tested points; at observation points where u > 1 the relative error grows (1e-2 at u = 5).",
+      "Well-bore storage affects the pumped well for longer than the often quoted 25 rc^2 / T: there the " +
+        "drawdown is still 1.9 % (alpha = rw^2 S / rc^2 = 0.1) to 3.2 % (alpha = 1e-7) below Theis at rw, and it " +
+        "comes within 1 % at 46 to 58 rc^2 / T (by mpmath; see wellboreStorageTime); with skin the effect lasts " +
+        "longer (alpha = 1e-3: 2.3 % at 25 rc^2 / T and 1 % at 54 rc^2 / T without skin, 2.6 % and 55 rc^2 / T " +
+        "with Sk = 2).",
+      "Numerical accuracy of the default inversion (N = 12 Stehfest terms) against mpmath: 5e-5 relative or " +
+        "better at 46 tested points, up to 8.8e-5 in the pumped well near 25 rc^2 / T for alpha = 1e-7 (N = 16: " +
+        "5.1e-6); at observation points where u > 1 the relative error grows (1e-2 at u = 5).",
     ],
     cautions: [
       "S from the pumped well is poorly determined: the early data are governed by rc, and the skin and " +

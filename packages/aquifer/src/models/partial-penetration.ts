@@ -237,8 +237,10 @@ export function partialPenetrationModel(geometry: PartialPenetrationGeometry): P
         "(common practice, no source); measured there over short and long screens, all depths, Kz/Kr 0.01 to 1: " +
         "|f| <= 0.021, which is <= 0.5 % of W(u) for u <= 0.01 but up to 9 % at u = 1 (short screen, " +
         "piezometer level with it).",
-      "At late time (t > b^2 S / (2 T) (Kr/Kz), Hantush 1961, from memory) the correction approaches a constant " +
-        "and s follows the Theis curve shifted by Q f / (4 pi T); the Cooper-Jacob slope gives T unaffected.",
+      "At late time the correction approaches the constant f = sum 2 c_n K0(beta_n) and s follows the Theis " +
+        "curve shifted by Q f / (4 pi T); the Cooper-Jacob slope gives T unaffected. The criterion t > b^2 S / " +
+        "(2 T) (Kr/Kz) (Hantush 1961, from memory), measured by mpmath over 7 geometries: at that time f is " +
+        "within 1.4 % of the constant (0.15 % of the drawdown), at three times that within 4e-7.",
       "The series needs more terms as r sqrt(Kz/Kr) / b becomes small (about 1 / (that ratio) terms).",
     ],
     cautions: [

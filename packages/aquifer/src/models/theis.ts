@@ -30,8 +30,10 @@ export const theisModel: DrawdownModel = {
   ],
   validity: [
     "All u = r^2 S / (4 T t) > 0; the model itself holds at every time once its assumptions hold.",
-    "In the pumped well, early data are affected by well-bore storage (roughly t < 25 rc^2 / T with rc the " +
-      "casing radius; Papadopulos and Cooper 1967, from memory) and drawdown there also contains well losses.",
+    "In the pumped well, early data are affected by well-bore storage (rc the casing radius): at the often " +
+      "quoted 25 rc^2 / T the drawdown is still 1.9 % (alpha = rw^2 S / rc^2 = 0.1) to 3.2 % (alpha = 1e-7) below " +
+      "Theis and it comes within 1 % at 46 to 58 rc^2 / T (Papadopulos-Cooper by mpmath; see " +
+      "wellboreStorageTime); drawdown there also contains well losses.",
     "In a water-table aquifer, usable while drawdown stays small (below roughly 10 to 25 % of the saturated " +
       "thickness, common practice, no source) and after delayed yield has ended.",
   ],

@@ -4,9 +4,12 @@
  *
  * The rule usually quoted, t > 25 rc^2 / T (Papadopulos and Cooper 1967, from memory), is not the time at which
  * the pumped-well drawdown meets the Theis curve: by mpmath inversion of the Papadopulos-Cooper transform
- * (tests/fixtures/wellbore/generate_storage_time.py) the drawdown at 25 rc^2/T is still 1.9 % (alpha =
- * rw^2 S/rc^2 = 0.1) to 3.2 % (alpha = 1e-7) below Theis at r = rw; at 60 rc^2/T it is 0.8 to 1.0 % below, and the
- * gap falls roughly as 0.6 rc^2/(T t). `wellboreStorageTime` finds, for the actual T, S, rc, rw and skin, the
+ * (tests/fixtures/wellbore/generate_storage_time.py, Talbot at 30 digits, checked against de Hoog) the drawdown at
+ * 25 rc^2/T is still 1.9 % (alpha = rw^2 S/rc^2 = 0.1) to 3.2 % (alpha = 1e-7) below Theis at r = rw; at
+ * 60 rc^2/T it is 0.8 to 1.0 % below; it comes within 1 % at 46 (alpha = 0.1) to 58 (alpha = 1e-7) rc^2/T, and
+ * the gap falls roughly as 0.5 rc^2/(T t) (gap times T t/rc^2: 0.46 to 0.58 at 60 rc^2/T, 0.45 to 0.50 at
+ * 1000 rc^2/T). `wellboreStorageTime` (tested against those times within 1 % in
+ * packages/aquifer/test/wellbore-storage-time.test.ts) finds, for the actual T, S, rc, rw and skin, the
  * earliest time after which the gap stays below a tolerance (default 1 %), by bisection in ln t on the
  * library's Papadopulos-Cooper model against Theis at rw plus the skin drawdown Q Sk/(2 pi T).
  */
