@@ -13,6 +13,7 @@ import { scanCsvRecords, type CsvSeparator } from "@conebook/aquifer";
 import { decodeUtf8Strict, describeUtf8Problem } from "@conebook/document";
 import type { DataCell } from "@conebook/document";
 import { platformSha256 } from "./digest.js";
+import { checkHostDeadline } from "./host-budget.js";
 
 /** One column of a data table: numbers (NaN where the field is empty), or field values. */
 export type DataColumn = Float64Array | (number | string | null)[];
@@ -22,7 +23,10 @@ export interface DataTable {
   name: string;
   /** Column names from the header line, trimmed, in file order. */
   columns: string[];
-  /** One entry per column name, in the same order. */
+  /**
+   * One entry per column name, in the same order. A text column is read from `csv` when first used (an accessor
+   * that then leaves the column in place); numericColumnsOf lists the numeric ones without reading text columns.
+   */
   values: DataColumn[];
   /** Number of rows (lines after the header). */
   length: number;
@@ -114,39 +118,35 @@ export function parseDataTable(name: string, text: string, firstLine = 1, checkp
   }
   if (!columns) throw new DataCellError(`data "${name}" is empty; give a header line with column names and then the rows`);
   if (ragged) throw ragged;
-  const values = builders.map((b, c): DataColumn => b.column(n) ?? textColumn(text, separator, c, n, firstLine));
+  const values: DataColumn[] = [];
+  builders.forEach((b, c) => {
+    const column = b.column(n);
+    if (column) values[c] = column;
+    else lazyTextColumn(values, c, () => textColumn(text, separator, c, n, firstLine, () => checkHostDeadline(`data "${name}", column "${columns![c]}"`)));
+  });
   return { name, columns, values, length: n, csv: text };
 }
 
 /**
- * One column being read: numbers while every field so far reads as one (NaN for empty fields), the field values
- * once a field does not, from the first row on. A column that turns to text after some numbers is read again by
- * textColumn (rare: a text column usually shows text in its first row), so numeric columns never hold a string per
- * row.
+ * One column being read: numbers while every field so far reads as one (NaN for empty fields). A column with a
+ * field that does not read as a number is a text column, and the builder stops keeping anything for it: its field
+ * values are read again from the text when first used (lazyTextColumn), so the timestamp column of a logger record,
+ * a million strings no cell may read, costs nothing until a cell reads it.
  */
 class ColumnBuilder {
   private numbers = new Float64Array(1024);
   private sawNumber = false;
-  private texts: (number | string | null)[] | undefined;
-  private reread = false;
+  private text = false;
 
   add(field: string, row: number): void {
-    if (this.reread) return;
-    if (this.texts) {
-      this.texts.push(fieldValue(field));
-      return;
-    }
+    if (this.text) return;
     let v: number;
     if (field === "") v = NaN;
     else if (NUMBER.test(field)) {
       v = Number(field);
       this.sawNumber = true;
     } else {
-      if (row > 0) {
-        this.reread = true;
-        return;
-      }
-      this.texts = [fieldValue(field)];
+      this.text = true;
       return;
     }
     if (row === this.numbers.length) {
@@ -157,17 +157,40 @@ class ColumnBuilder {
     this.numbers[row] = v;
   }
 
-  /** The column of n rows, or undefined when it must be read again as text. */
+  /** The numeric (or all-empty) column of n rows, or undefined for a text column. */
   column(n: number): DataColumn | undefined {
-    if (this.reread) return undefined;
-    if (this.texts) return this.texts;
+    if (this.text) return undefined;
     if (this.sawNumber) return this.numbers.length === n ? this.numbers : this.numbers.slice(0, n);
     return new Array<null>(n).fill(null);
   }
 }
 
+/**
+ * Makes values[c] a text column read by `read` on first access and kept from then on. The reading checks the
+ * deadline of the host call in progress (checkHostDeadline), since it happens inside the call that first reads it.
+ */
+function lazyTextColumn(values: DataColumn[], c: number, read: () => DataColumn): void {
+  Object.defineProperty(values, c, {
+    configurable: true,
+    enumerable: true,
+    get() {
+      const column = read();
+      Object.defineProperty(values, c, { value: column, writable: true, enumerable: true, configurable: true });
+      return column;
+    },
+  });
+}
+
+/** The numeric columns of a table (null for a text column), without reading a text column that is not read yet. */
+export function numericColumnsOf(table: DataTable): (Float64Array | null)[] {
+  return table.columns.map((_, c) => {
+    const d = Object.getOwnPropertyDescriptor(table.values, c);
+    return d && "value" in d && d.value instanceof Float64Array ? d.value : null;
+  });
+}
+
 /** Field values (fieldValue) of column c of the n data rows, read again from the text. */
-function textColumn(text: string, separator: CsvSeparator, c: number, n: number, firstLine: number): DataColumn {
+function textColumn(text: string, separator: CsvSeparator, c: number, n: number, firstLine: number, checkpoint: () => void): DataColumn {
   const out: (number | string | null)[] = [];
   let header = true;
   scanCsvRecords(
@@ -178,6 +201,7 @@ function textColumn(text: string, separator: CsvSeparator, c: number, n: number,
       else if (out.length < n) out.push(fieldValue(fields[c]!.trim()));
     },
     firstLine,
+    checkpoint,
   );
   return out;
 }

@@ -23,7 +23,7 @@ import type { QuickJSContext, QuickJSHandle, QuickJSRuntime, QuickJSWASMModule }
 import { BRIDGE_API } from "./bridge-api.js";
 import { HostTimeLimitError, withHostDeadline } from "./host-budget.js";
 import { HOST_RESERVE_MB, MAX_ELEMENTS_PER_CALL, MAX_PROXY_KEYS, MAX_STRING_LENGTH, SANDBOX_BASE_MB, TEXT_REFERENCE_MIN_LENGTH, WORK_CHECK_UNITS } from "./limits.js";
-import type { DataTable } from "./data-cells.js";
+import { numericColumnsOf, type DataTable } from "./data-cells.js";
 import { GUEST_PRELUDE, GUEST_PRELUDE_FILENAME } from "./guest-prelude.js";
 import { useSyncHostCalls } from "./sync-host-calls.js";
 import { ArgumentError } from "./validators.js";
@@ -289,10 +289,15 @@ export class Sandbox {
         this.ensureRoom(3 * table.csv.length);
         return ctx.newString(table.csv);
       }
-      const column = table.values[which];
+      // A text column is read from the CSV text on first use, within the cell's deadline.
+      const column = which >= 0 && which < table.values.length ? withHostDeadline(this.deadline, () => table.values[which]) : undefined;
       if (!column) throw new Error("no such column");
       return this.newWire(column instanceof Float64Array ? column.slice() : column);
     } catch (e) {
+      if (e instanceof HostTimeLimitError) {
+        this.interrupted = true;
+        this.forcedAbort = "time";
+      }
       return { error: ctx.newError(errorMessage(e)) };
     }
   }
@@ -459,7 +464,7 @@ export class Sandbox {
       const index = this.tables.length;
       this.tables.push(table);
       // newWire checks its own room before it makes a handle, so nothing is left undisposed when it throws.
-      const numeric = table.values.map((v) => (v instanceof Float64Array ? v : null));
+      const numeric = numericColumnsOf(table);
       const wire = this.newWire({ columns: table.columns, numeric, length: table.length });
       const nameH = ctx.newString(table.name);
       const indexH = ctx.newNumber(index);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { createKernel } from "../src/index.js";
-import { parseDataTable, tableRows } from "../src/data-cells.js";
+import { numericColumnsOf, parseDataTable, tableRows } from "../src/data-cells.js";
 import { decodeWireValue, encodeHostValue, WireDecodeError, WireEncodeError } from "../src/wire.js";
 import { makeDoc } from "./helpers.js";
 
@@ -136,6 +136,17 @@ describe("data cells in columns", () => {
     expect(mixed[n - 1]).toBe("dry");
     expect(mixed.length).toBe(n);
     expect(table.values[2]).toEqual(new Array(n).fill(null));
+  });
+
+  it("reads a text column from the CSV text only when it is first used, and keeps it from then on", () => {
+    const table = parseDataTable("obs", csv);
+    expect(typeof Object.getOwnPropertyDescriptor(table.values, 2)!.get).toBe("function");
+    expect(numericColumnsOf(table).map((c) => c && Array.from(c).length)).toEqual([3, 3, null]);
+    expect(typeof Object.getOwnPropertyDescriptor(table.values, 2)!.get).toBe("function");
+    const first = table.values[2];
+    expect(first).toEqual(["start", null, 3]);
+    expect(Object.getOwnPropertyDescriptor(table.values, 2)!.value).toBe(first);
+    expect(table.values[2]).toBe(first);
   });
 
   it("names the line of a row with the wrong number of fields", () => {
