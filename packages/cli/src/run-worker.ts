@@ -25,6 +25,8 @@ export interface RunRequest {
 /** Reads the files sent with the request, each once, and any other file from the document's folder. */
 function requestReader(request: RunRequest): ReadFile {
   const sent = new Map(request.files);
+  // The map holds the only reference from here on, so each file's bytes are freed once the run has read them.
+  request.files.length = 0;
   const fromDisk = fileReaderFor(request.folder);
   return (path) => {
     const file = sent.get(path);
