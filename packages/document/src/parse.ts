@@ -6,9 +6,8 @@
  */
 
 import MarkdownIt from "markdown-it";
-import { parse as parseYaml } from "yaml";
 import { cellSnapshot, outputsKey } from "./cell-keys.js";
-import { cellStartInside } from "./cell-start.js";
+import { mayStartCell, startsCell } from "./cell-start.js";
 import { DocumentError, diagnostic } from "./errors.js";
 import { closesFence, readCellInfo, readOpeningFence } from "./fence.js";
 import type { CellInfo, OpeningFence } from "./fence.js";
@@ -20,6 +19,7 @@ import { PositionMap, detectEol, dropFinalEol, splitLines } from "./text.js";
 import type { Line } from "./text.js";
 import type { Cell, CellOutput, ConebookDocument, Diagnostic, Position } from "./types.js";
 import { validateDocument } from "./validate.js";
+import { readYamlValue } from "./yaml-read.js";
 
 export interface ParseOptions {
   /** File name used in diagnostics and errors. */
@@ -78,7 +78,7 @@ export function parseDocument(text: string, options: ParseOptions = {}): ParseRe
   const yamlText = text.slice(lines[1]!.start, lines[close]!.start);
   const headerReading = readHeader(yamlText, 2, file);
 
-  const body = splitBody(text, headerEnd, file);
+  const body = readBody(text, headerEnd, file, lines);
   const diagnostics = [...headerReading.diagnostics, ...body.diagnostics];
   const document: ConebookDocument = {
     header: headerReading.header,
@@ -130,8 +130,12 @@ export interface BodyReading {
  * uses it to check that a regenerated narrative cell reads back as itself.
  */
 export function splitBody(text: string, from: number, file?: string): BodyReading {
-  const lines = splitLines(text);
-  const positions = new PositionMap(text);
+  return readBody(text, from, file, splitLines(text));
+}
+
+/** splitBody over the lines of the text, split once by the caller. */
+function readBody(text: string, from: number, file: string | undefined, lines: Line[]): BodyReading {
+  const positions = new PositionMap(text, lines);
   const lineText = (i: number): string => text.slice(lines[i]!.start, lines[i]!.end);
   const diagnostics: Diagnostic[] = [];
   const warn = (entry: { code: string; message: string }, at: Position, id?: string): void => {
@@ -165,7 +169,13 @@ export function splitBody(text: string, from: number, file?: string): BodyReadin
           continue;
         }
         const closed = endLine > startLine && closesFence(lineText(endLine), fence);
-        const inside = cellStartInside(lines.slice(startLine + 1, closed ? endLine : lines.length).map((l) => text.slice(l.start, l.end)).join("\n"));
+        let inside: { line: number; text: string } | undefined;
+        for (let j = startLine + 1, bodyEnd = closed ? endLine : lines.length; j < bodyEnd; j++) {
+          if (mayStartCell(text, lines[j]!.start, lines[j]!.end) && startsCell(lineText(j))) {
+            inside = { line: j - startLine, text: lineText(j).trim() };
+            break;
+          }
+        }
         if (inside) warn(messages.fenceSwallowsCell(fence.char.repeat(fence.length), startLine + 1 + inside.line, inside.text), at, info.id);
         else if (!closed) warn(messages.fenceUnclosed(fence.char.repeat(fence.length)), at, info.id);
         blocks.push({
@@ -187,10 +197,17 @@ export function splitBody(text: string, from: number, file?: string): BodyReadin
   // whose label the parser recorded as a definition, is a marker.
   let next = 0;
   covered.sort((x, y) => x[0] - y[0]);
-  const firstLine = splitLines(text.slice(0, from)).length - 1;
+  // The line of `from`: the number of line breaks before it (a lone "\r" when `from` splits a "\r\n" counts).
+  const firstLine = positions.at(from).line - 1 + (text.charCodeAt(from - 1) === 13 && text.charCodeAt(from) === 10 ? 1 : 0);
   for (let i = firstLine; i < lines.length; i++) {
     while (next < covered.length && covered[next]![1] <= i) next++;
-    if (next < covered.length && covered[next]![0] <= i) continue;
+    if (next < covered.length && covered[next]![0] <= i) {
+      // Inside a block: its lines are covered up to its end.
+      i = covered[next]![1] - 1;
+      continue;
+    }
+    // Every marker starts with "[" in the first column: skip the other uncovered lines (mostly blank) at once.
+    if (text.charCodeAt(lines[i]!.start) !== 91 || lines[i]!.start >= lines[i]!.end) continue;
     const line = lineText(i);
     const m = NARRATIVE_MARKER.exec(line);
     const r = m ? null : REVIEW_MARKER.exec(line);
@@ -327,6 +344,14 @@ function fencedParts(text: string, lines: Line[], block: FencedBlock): FencedPar
   return { head, body, tail, source, sourceStart: { line: block.line + 2, column: 1 + indent } };
 }
 
+/** The file position of an offset into a fenced block's source (whose lines lost the fence's indent). */
+function sourcePosition(parts: FencedParts, offset: number): Position {
+  const before = parts.source.slice(0, offset);
+  const lineStart = Math.max(before.lastIndexOf("\n"), before.lastIndexOf("\r")) + 1;
+  const breaks = before.match(/\r\n|\n|\r/g)?.length ?? 0;
+  return { line: parts.sourceStart.line + breaks, column: parts.sourceStart.column + offset - lineStart };
+}
+
 const KNOWN_ATTRIBUTES: Record<string, readonly string[]> = { code: [], data: ["name", "file", "sha256"], chart: [] };
 
 function fencedCell(text: string, lines: Line[], block: FencedBlock, leading: string, file: string | undefined, diagnostics: Diagnostic[]): Cell {
@@ -349,26 +374,35 @@ function fencedCell(text: string, lines: Line[], block: FencedBlock, leading: st
     diagnostics.push(diagnostic("warning", messages.attributeUnknown(key, info.kind), start, file, id));
   }
   const origin = { leading, head: parts.head, body: parts.body, tail: parts.tail, snapshot: "", idAssigned: id === "", start };
-  const base = { id, source: parts.source, sourceStart: parts.sourceStart, outputs: [] as CellOutput[], origin };
+  // Each cell is one object literal (keys in the order id, source, sourceStart, outputs, origin, kind, ...).
+  const { source, sourceStart } = parts;
   const withAttributes = <T extends Cell>(cell: T): T => {
     if (Object.keys(unknown).length > 0) cell.attributes = unknown;
     return cell;
   };
-  if (info.kind === "code") return withAttributes({ ...base, kind: "code", language: "ts" });
+  if (info.kind === "code") return withAttributes({ id, source, sourceStart, outputs: [] as CellOutput[], origin, kind: "code", language: "ts" });
   if (info.kind === "data") {
     const a = info.attributes;
-    const cell: Cell = { ...base, kind: "data", name: a.name ?? id, format: "csv" };
+    const cell: Cell = { id, source, sourceStart, outputs: [], origin, kind: "data", name: a.name ?? id, format: "csv" };
     if (a.file !== undefined || a.sha256 !== undefined) cell.file = { path: a.file ?? "", sha256: a.sha256 ?? "" };
     return withAttributes(cell);
   }
   const specFormat = info.lang as "json" | "yaml";
   let spec: Record<string, unknown> = {};
   try {
-    const value: unknown = specFormat === "json" ? JSON.parse(parts.source) : parseYaml(parts.source, { prettyErrors: false });
+    let value: unknown;
+    if (specFormat === "json") value = JSON.parse(parts.source);
+    else {
+      const reading = readYamlValue(parts.source);
+      value = reading.value;
+      for (const note of reading.notes) {
+        diagnostics.push(diagnostic("warning", messages.yamlPassedOver("chart specification", note.message), sourcePosition(parts, note.offset), file, id));
+      }
+    }
     if (typeof value === "object" && value !== null && !Array.isArray(value)) spec = value as Record<string, unknown>;
     else diagnostics.push(diagnostic("error", messages.chartNotObject(), parts.sourceStart, file, id));
   } catch (e) {
     diagnostics.push(diagnostic("error", messages.chartSyntax(specFormat.toUpperCase(), (e as Error).message.split("\n")[0]!), parts.sourceStart, file, id));
   }
-  return withAttributes({ ...base, kind: "chart", spec, specFormat });
+  return withAttributes({ id, source, sourceStart, outputs: [], origin, kind: "chart", spec, specFormat });
 }
