@@ -20,6 +20,7 @@ import type { Line } from "./text.js";
 import type { Cell, CellOutput, ConebookDocument, Diagnostic, Position } from "./types.js";
 import { validateDocument } from "./validate.js";
 import { readYamlValue } from "./yaml-read.js";
+import { MAX_JSON_DEPTH, nestedTooDeep } from "./json-depth.js";
 
 export interface ParseOptions {
   /** File name used in diagnostics and errors. */
@@ -91,7 +92,8 @@ export function parseDocument(text: string, options: ParseOptions = {}): ParseRe
       trailing: body.trailing,
     },
   };
-  diagnostics.push(...validateDocument(document, { file }));
+  // One at a time: spreading a list of 100,000 diagnostics into push() overflows the stack.
+  for (const d of validateDocument(document, { file })) diagnostics.push(d);
   diagnostics.sort((a, b) => a.line - b.line || a.column - b.column);
   return { document, diagnostics };
 }
@@ -399,6 +401,7 @@ function fencedCell(text: string, lines: Line[], block: FencedBlock, leading: st
         diagnostics.push(diagnostic("warning", messages.yamlPassedOver("chart specification", note.message), sourcePosition(parts, note.offset), file, id));
       }
     }
+    if (nestedTooDeep(value)) throw new SyntaxError(`it nests more than ${MAX_JSON_DEPTH} ${specFormat === "json" ? "arrays and objects" : "lists and mappings"} deep; flatten it`);
     if (typeof value === "object" && value !== null && !Array.isArray(value)) spec = value as Record<string, unknown>;
     else diagnostics.push(diagnostic("error", messages.chartNotObject(), parts.sourceStart, file, id));
   } catch (e) {
