@@ -15,8 +15,7 @@ import { headerSnapshot, readHeader } from "./header.js";
 import { messages } from "./messages.js";
 import { readOutputs } from "./outputs.js";
 import { REVIEW_MARKER, REVIEW_MARKER_START, type ReviewMark } from "./review-notes.js";
-import { PositionMap, detectEol, dropFinalEol, splitLines } from "./text.js";
-import type { Line } from "./text.js";
+import { LineTable, PositionMap, detectEol, dropFinalEol } from "./text.js";
 import type { Cell, CellOutput, ConebookDocument, Diagnostic, Position } from "./types.js";
 import { validateDocument } from "./validate.js";
 import { readYamlValue } from "./yaml-read.js";
@@ -63,8 +62,8 @@ function normalizeLabel(label: string): string {
  */
 export function parseDocument(text: string, options: ParseOptions = {}): ParseResult {
   const { file } = options;
-  const lines = splitLines(text);
-  const lineText = (i: number): string => text.slice(lines[i]!.start, lines[i]!.end);
+  const lines = new LineTable(text);
+  const lineText = (i: number): string => text.slice(lines.start(i), lines.end(i));
   const first = lineText(0).replace(/^\uFEFF/, "");
   if (!/^---[ \t]*$/.test(first)) throw new DocumentError(messages.headerMissing(), { line: 1, column: 1 }, file);
   let close = -1;
@@ -75,8 +74,8 @@ export function parseDocument(text: string, options: ParseOptions = {}): ParseRe
     }
   }
   if (close < 0) throw new DocumentError(messages.headerUnclosed(), { line: 1, column: 1 }, file);
-  const headerEnd = lines[close]!.end;
-  const yamlText = text.slice(lines[1]!.start, lines[close]!.start);
+  const headerEnd = lines.end(close);
+  const yamlText = text.slice(lines.start(1), lines.start(close));
   const headerReading = readHeader(yamlText, 2, file);
 
   const body = readBody(text, headerEnd, file, lines);
@@ -132,13 +131,13 @@ export interface BodyReading {
  * uses it to check that a regenerated narrative cell reads back as itself.
  */
 export function splitBody(text: string, from: number, file?: string): BodyReading {
-  return readBody(text, from, file, splitLines(text));
+  return readBody(text, from, file, new LineTable(text));
 }
 
 /** splitBody over the lines of the text, split once by the caller. */
-function readBody(text: string, from: number, file: string | undefined, lines: Line[]): BodyReading {
-  const positions = new PositionMap(text, lines);
-  const lineText = (i: number): string => text.slice(lines[i]!.start, lines[i]!.end);
+function readBody(text: string, from: number, file: string | undefined, lines: LineTable): BodyReading {
+  const positions = new PositionMap(text, lines.starts);
+  const lineText = (i: number): string => text.slice(lines.start(i), lines.end(i));
   const diagnostics: Diagnostic[] = [];
   const warn = (entry: { code: string; message: string }, at: Position, id?: string): void => {
     diagnostics.push(diagnostic("warning", entry, at, file, id));
@@ -167,13 +166,13 @@ function readBody(text: string, from: number, file: string | undefined, lines: L
         const at = { line: startLine + 1, column: fence.indent + 1 };
         if (!LANGUAGES[info.kind]!.includes(info.lang)) {
           fail(messages.cellLanguage(info.kind, info.lang, LANGUAGES[info.kind]!.map((l) => JSON.stringify(l)).join(" or ")), at);
-          blocks.push({ type: "content", start: lines[startLine]!.start, end: lines[endLine]!.end });
+          blocks.push({ type: "content", start: lines.start(startLine), end: lines.end(endLine) });
           continue;
         }
         const closed = endLine > startLine && closesFence(lineText(endLine), fence);
         let inside: { line: number; text: string } | undefined;
         for (let j = startLine + 1, bodyEnd = closed ? endLine : lines.length; j < bodyEnd; j++) {
-          if (mayStartCell(text, lines[j]!.start, lines[j]!.end) && startsCell(lineText(j))) {
+          if (mayStartCell(text, lines.start(j), lines.end(j)) && startsCell(lineText(j))) {
             inside = { line: j - startLine, text: lineText(j).trim() };
             break;
           }
@@ -182,8 +181,8 @@ function readBody(text: string, from: number, file: string | undefined, lines: L
         else if (!closed) warn(messages.fenceUnclosed(fence.char.repeat(fence.length)), at, info.id);
         blocks.push({
           type: "fenced",
-          start: lines[startLine]!.start,
-          end: closed ? lines[endLine]!.end : text.length,
+          start: lines.start(startLine),
+          end: closed ? lines.end(endLine) : text.length,
           line: startLine,
           fence,
           info,
@@ -193,7 +192,7 @@ function readBody(text: string, from: number, file: string | undefined, lines: L
       }
     }
     while (endLine > startLine && isBlankLine(endLine)) endLine--;
-    blocks.push({ type: "content", start: lines[startLine]!.start, end: lines[endLine]!.end });
+    blocks.push({ type: "content", start: lines.start(startLine), end: lines.end(endLine) });
   }
   // Link reference definitions make no token: a line no block covers that reads as a narrative marker, and
   // whose label the parser recorded as a definition, is a marker.
@@ -209,18 +208,18 @@ function readBody(text: string, from: number, file: string | undefined, lines: L
       continue;
     }
     // Every marker starts with "[" in the first column: skip the other uncovered lines (mostly blank) at once.
-    if (text.charCodeAt(lines[i]!.start) !== 91 || lines[i]!.start >= lines[i]!.end) continue;
+    if (text.charCodeAt(lines.start(i)) !== 91 || lines.start(i) >= lines.end(i)) continue;
     const line = lineText(i);
     const m = NARRATIVE_MARKER.exec(line);
     const r = m ? null : REVIEW_MARKER.exec(line);
     const references = env.references as Record<string, unknown> | undefined;
     const isDefinition = (): boolean => references !== undefined && normalizeLabel(line.slice(1, line.indexOf("]"))) in references;
     if (m && isDefinition()) {
-      blocks.push({ type: "marker", start: lines[i]!.start, end: lines[i]!.end, id: m[1] === "" || m[1] === undefined ? undefined : m[1] });
+      blocks.push({ type: "marker", start: lines.start(i), end: lines.end(i), id: m[1] === "" || m[1] === undefined ? undefined : m[1] });
     } else if (r && isDefinition()) {
-      blocks.push({ type: "marker", start: lines[i]!.start, end: lines[i]!.end, id: r[1]!, review: { on: r[2]!, status: r[3] as ReviewMark["status"] } });
+      blocks.push({ type: "marker", start: lines.start(i), end: lines.end(i), id: r[1]!, review: { on: r[2]!, status: r[3] as ReviewMark["status"] } });
     } else if (!m && REVIEW_MARKER_START.test(line) && isDefinition()) {
-      warn(messages.reviewMarkerUnread(), positions.at(lines[i]!.start));
+      warn(messages.reviewMarkerUnread(), positions.at(lines.start(i)));
     }
   }
   blocks.sort((x, y) => x.start - y.start);
@@ -334,12 +333,12 @@ interface FencedParts {
 }
 
 /** Cuts a fenced block into opening line, body and closing line, and reads the source from the body. */
-function fencedParts(text: string, lines: Line[], block: FencedBlock): FencedParts {
-  const open = lines[block.line]!;
+function fencedParts(text: string, lines: LineTable, block: FencedBlock): FencedParts {
+  const open = { start: lines.start(block.line), eolEnd: lines.eolEnd(block.line) };
   const head = text.slice(open.start, open.eolEnd);
-  const bodyEnd = block.closeLine >= 0 ? lines[block.closeLine]!.start : text.length;
+  const bodyEnd = block.closeLine >= 0 ? lines.start(block.closeLine) : text.length;
   const body = text.slice(open.eolEnd, Math.max(open.eolEnd, bodyEnd));
-  const tail = block.closeLine >= 0 ? text.slice(lines[block.closeLine]!.start, lines[block.closeLine]!.end) : "";
+  const tail = block.closeLine >= 0 ? text.slice(lines.start(block.closeLine), lines.end(block.closeLine)) : "";
   const indent = block.fence.indent;
   const source =
     indent === 0 ? dropFinalEol(body) : dropFinalEol(body.replace(new RegExp(`(^|\\r\\n|\\n|\\r) {0,${indent}}`, "g"), "$1"));
@@ -356,7 +355,7 @@ function sourcePosition(parts: FencedParts, offset: number): Position {
 
 const KNOWN_ATTRIBUTES: Record<string, readonly string[]> = { code: [], data: ["name", "file", "sha256"], chart: [] };
 
-function fencedCell(text: string, lines: Line[], block: FencedBlock, leading: string, file: string | undefined, diagnostics: Diagnostic[]): Cell {
+function fencedCell(text: string, lines: LineTable, block: FencedBlock, leading: string, file: string | undefined, diagnostics: Diagnostic[]): Cell {
   const parts = fencedParts(text, lines, block);
   const { info } = block;
   const start: Position = { line: block.line + 1, column: block.fence.indent + 1 };
