@@ -2,13 +2,14 @@
  * `npm run bench`: prints this machine's figures beside a peer measured in the same run, with ratios and
  * whether each target is met, then every target in one closing table. Run on an otherwise idle machine; figures
  * from a loaded machine are noisy (the paired ratios less so). `npm run bench -- --only=cli,kernel` runs some
- * sections only (names: foundation, laplace, methods, kernel, cli, workbench).
+ * sections only (names: foundation, laplace, methods, kernel, document, cli, workbench).
  */
 import { machineLine, printTable, printTargetSummary } from "./harness.js";
 import { PeerProcess, preparePython } from "./python-peer.js";
 import { classicModelBenchmarks } from "./sections/classic-models.js";
 import { cliBenchmarks } from "./sections/cli.js";
 import { coverageSection } from "./sections/coverage.js";
+import { documentParseBenchmarks } from "./sections/document-parse.js";
 import { kernelBenchmarks } from "./sections/kernel.js";
 import { laplaceModelBenchmarks } from "./sections/laplace-models.js";
 import { newMethodBenchmarks } from "./sections/new-methods.js";
@@ -34,6 +35,7 @@ if (wanted("laplace")) printTable("Laplace-domain models (aquifer)", laplaceMode
 if (wanted("methods")) printTable("Screened wells, slug and step tests (aquifer)", newMethodBenchmarks());
 if (wanted("methods")) printTable("Boulton, Jacob-Lohman, Hantush 1964, underdamped slug, barometric response (aquifer)", classicModelBenchmarks());
 if (wanted("kernel")) printTable("Sandbox, bridge and documents (kernel)", await kernelBenchmarks());
+if (wanted("document")) printTable("Parsing documents (document)", documentParseBenchmarks());
 if (wanted("cli")) printTable("Command line (cli): cold start and logger documents", await cliBenchmarks());
 if (wanted("coverage")) coverageSection();
 if (wanted("workbench")) printTable("Workbench page in Chromium (viewer)", await workbenchBenchmarks());

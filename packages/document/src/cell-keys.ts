@@ -6,18 +6,18 @@
 import { stableStringify } from "./text.js";
 import type { Cell } from "./types.js";
 
-/** What the marker line or opening fence says: id, kind and attributes. */
+/** What the marker line or opening fence says: id, kind and attributes. Keys are written in sorted order. */
 export function markerKey(cell: Cell): string {
-  const base = { id: cell.id, kind: cell.kind, attributes: cell.attributes ?? {} };
+  const attributes = cell.attributes ?? {};
   switch (cell.kind) {
     case "narrative":
-      return cell.review ? stableStringify({ ...base, review: cell.review }) : stableStringify(base);
+      return stableStringify(cell.review ? { attributes, id: cell.id, kind: cell.kind, review: cell.review } : { attributes, id: cell.id, kind: cell.kind });
     case "code":
-      return stableStringify({ ...base, language: cell.language });
+      return stableStringify({ attributes, id: cell.id, kind: cell.kind, language: cell.language });
     case "data":
-      return stableStringify({ ...base, name: cell.name, format: cell.format, file: cell.file ?? null });
+      return stableStringify({ attributes, file: cell.file ?? null, format: cell.format, id: cell.id, kind: cell.kind, name: cell.name });
     case "chart":
-      return stableStringify({ ...base, specFormat: cell.specFormat });
+      return stableStringify({ attributes, id: cell.id, kind: cell.kind, specFormat: cell.specFormat });
   }
 }
 
@@ -28,7 +28,8 @@ export function bodyKey(cell: Cell): string {
 
 /** Fingerprint of the whole cell, stored in CellOrigin.snapshot. */
 export function cellSnapshot(cell: Cell): string {
-  return stableStringify({ marker: markerKey(cell), body: bodyKey(cell) });
+  // stableStringify({ body, marker }) of two strings, written out.
+  return `{"body":${JSON.stringify(bodyKey(cell))},"marker":${JSON.stringify(markerKey(cell))}}`;
 }
 
 /** Fingerprint of an outputs block: the id it names (null when it names none) and the outputs. */

@@ -6,13 +6,14 @@
  * parameters, dataSlots, testInformation (test-information.ts). Any other key is kept in `extra`.
  */
 
-import { Document, LineCounter, isMap, isScalar, isSeq, parseDocument, stringify } from "yaml";
+import { Document, LineCounter, isMap, isScalar, isSeq, stringify } from "yaml";
 import type { Node as YamlNode } from "yaml";
 import { DocumentError, diagnostic } from "./errors.js";
 import { MAX_HEADER_DEPTH, headerNodeProblem, nestingTooDeep } from "./header-guard.js";
 import { messages } from "./messages.js";
 import { readTestInformation, testInformationToRaw } from "./test-information.js";
 import { stableStringify } from "./text.js";
+import { parseYamlDocument, yamlNotes } from "./yaml-read.js";
 import type { DataSlot, Diagnostic, DocumentHeader, Position, TemplateParameter } from "./types.js";
 
 /** The newest format version this package reads and writes. */
@@ -49,7 +50,7 @@ export function readHeader(yamlText: string, firstLine: number, file?: string): 
     throw new DocumentError(messages.headerTooDeep(MAX_HEADER_DEPTH), { line, column: tooDeep - lineStart + 1 }, file);
   }
   const lineCounter = new LineCounter();
-  const doc = parseDocument(yamlText, { lineCounter, prettyErrors: false, uniqueKeys: true });
+  const doc = parseYamlDocument(yamlText, { lineCounter, prettyErrors: false });
   const toPos = (offset: number): Position => {
     const p = lineCounter.linePos(offset);
     return { line: p.line + firstLine - 1, column: p.col };
@@ -87,6 +88,7 @@ export function readHeader(yamlText: string, firstLine: number, file?: string): 
     throw new DocumentError(messages.headerNotMapping(), headerStart, file);
   }
   const diagnostics: Diagnostic[] = [];
+  for (const note of yamlNotes(doc, yamlText)) diagnostics.push(diagnostic("warning", messages.yamlPassedOver("header", note.message), toPos(note.offset), file));
   const at = (path: string): Position => positions[path] ?? headerStart;
   const typeError = (path: string, expected: string): void => {
     diagnostics.push(diagnostic("error", messages.headerType(path, expected), at(path), file));
@@ -307,7 +309,7 @@ function diffRaw(before: unknown, after: unknown, path: (string | number)[], out
 export function rewriteHeaderYaml(yamlText: string, before: DocumentHeader, after: DocumentHeader, eol: string): string {
   const changes: Change[] = [];
   diffRaw(headerToRaw(before), headerToRaw(after), [], changes);
-  const doc = parseDocument(yamlText, { keepSourceTokens: true });
+  const doc = parseYamlDocument(yamlText, { keepSourceTokens: true });
   const edits: { start: number; end: number; text: string }[] = [];
   const appended: string[] = [];
   let inPlace = isMap(doc.contents);
@@ -327,7 +329,7 @@ export function rewriteHeaderYaml(yamlText: string, before: DocumentHeader, afte
   }
   const readsAs = (text: string): boolean => {
     try {
-      const d = parseDocument(text, { uniqueKeys: true });
+      const d = parseYamlDocument(text);
       const raw: unknown = d.errors.length > 0 ? undefined : (d.toJS() ?? {});
       if (!isObject(raw)) return false;
       const noop = (): void => undefined;

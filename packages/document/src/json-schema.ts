@@ -33,6 +33,11 @@ export interface SchemaProblem {
   message: string;
 }
 
+/** Appends `more` to `into` one by one (spreading a long list into push() overflows the stack). */
+function append(into: SchemaProblem[], more: readonly SchemaProblem[]): void {
+  for (const p of more) into.push(p);
+}
+
 function typeOf(v: unknown): JsonType | "undefined" {
   if (v === null) return "null";
   if (Array.isArray(v)) return "array";
@@ -72,7 +77,7 @@ export function validateJsonSchema(schema: JsonSchema, value: unknown, path = ""
   if (Array.isArray(value)) {
     if (schema.minItems !== undefined && value.length < schema.minItems) add(`must have at least ${schema.minItems} items`);
     if (schema.maxItems !== undefined && value.length > schema.maxItems) add(`must have at most ${schema.maxItems} items`);
-    if (schema.items) value.forEach((v, i) => problems.push(...validateJsonSchema(schema.items!, v, join(i))));
+    if (schema.items) value.forEach((v, i) => append(problems, validateJsonSchema(schema.items!, v, join(i))));
   }
   if (typeof value === "object" && value !== null && !Array.isArray(value)) {
     const o = value as Record<string, unknown>;
@@ -82,9 +87,9 @@ export function validateJsonSchema(schema: JsonSchema, value: unknown, path = ""
     }
     for (const [k, v] of Object.entries(o)) {
       const sub = schema.properties?.[k];
-      if (sub) problems.push(...validateJsonSchema(sub, v, join(k)));
+      if (sub) append(problems, validateJsonSchema(sub, v, join(k)));
       else if (schema.additionalProperties === false) add(`has unknown property ${JSON.stringify(k)}`, join(k));
-      else if (typeof schema.additionalProperties === "object") problems.push(...validateJsonSchema(schema.additionalProperties, v, join(k)));
+      else if (typeof schema.additionalProperties === "object") append(problems, validateJsonSchema(schema.additionalProperties, v, join(k)));
     }
   }
   return problems;

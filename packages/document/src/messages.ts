@@ -17,6 +17,10 @@ export const messages = {
     message: "the header opened by '---' on line 1 is never closed; add a line '---' after the last header line",
   }),
   headerYaml: (detail: string) => ({ code: "header-yaml", message: `the header is not valid YAML: ${detail}` }),
+  yamlPassedOver: (where: "header" | "chart specification", detail: string) => ({
+    code: "yaml-passed-over",
+    message: `the ${where} is read, but its YAML ${detail.startsWith("a ") ? "has " : "has a problem: "}${detail}; write it in plain YAML (text keys, no custom tags or directives) so that it reads as meant`,
+  }),
   headerAlias: (name: string) => ({
     code: "header-alias",
     message: `the header uses the YAML alias *${name}; Conebook headers allow no aliases (a chain of them can make a few lines expand to billions of values). Write the value out in full`,

@@ -96,7 +96,7 @@ export function computedNumbers(outputsByCell: Readonly<Record<string, readonly 
   const values: number[] = [];
   const add = (v: unknown): void => {
     if (typeof v === "number" && Number.isFinite(v)) values.push(v);
-    else if (typeof v === "string") values.push(...numbersInText(v));
+    else if (typeof v === "string") for (const n of numbersInText(v)) values.push(n);
   };
   const walk = (v: unknown): void => {
     if (Array.isArray(v)) v.forEach(walk);

@@ -3,6 +3,7 @@
  * against the CellOutput union so a hand-edited or truncated record is reported, not silently trusted.
  */
 
+import { MAX_JSON_DEPTH, nestedTooDeep } from "./json-depth.js";
 import { formatJson } from "./json-format.js";
 import type { CellOutput } from "./types.js";
 
@@ -76,9 +77,13 @@ export interface OutputsReading {
   problems: string[];
 }
 
-/** Reads the JSON text of an outputs block. Throws a SyntaxError when the text is not JSON. */
+/**
+ * Reads the JSON text of an outputs block. Throws a SyntaxError when the text is not JSON or nests deeper than
+ * MAX_JSON_DEPTH arrays and objects.
+ */
 export function readOutputs(json: string): OutputsReading {
   const value: unknown = JSON.parse(json);
+  if (nestedTooDeep(value)) throw new SyntaxError(`the JSON nests more than ${MAX_JSON_DEPTH} arrays and objects deep`);
   if (!Array.isArray(value)) return { outputs: [], problems: ["the recorded outputs must be a JSON array"] };
   const problems: string[] = [];
   value.forEach((o, i) => {

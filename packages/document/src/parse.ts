@@ -6,9 +6,8 @@
  */
 
 import MarkdownIt from "markdown-it";
-import { parse as parseYaml } from "yaml";
 import { cellSnapshot, outputsKey } from "./cell-keys.js";
-import { cellStartInside } from "./cell-start.js";
+import { mayStartCell, startsCell } from "./cell-start.js";
 import { DocumentError, diagnostic } from "./errors.js";
 import { closesFence, readCellInfo, readOpeningFence } from "./fence.js";
 import type { CellInfo, OpeningFence } from "./fence.js";
@@ -16,10 +15,11 @@ import { headerSnapshot, readHeader } from "./header.js";
 import { messages } from "./messages.js";
 import { readOutputs } from "./outputs.js";
 import { REVIEW_MARKER, REVIEW_MARKER_START, type ReviewMark } from "./review-notes.js";
-import { PositionMap, detectEol, dropFinalEol, splitLines } from "./text.js";
-import type { Line } from "./text.js";
+import { LineTable, PositionMap, detectEol, dropFinalEol } from "./text.js";
 import type { Cell, CellOutput, ConebookDocument, Diagnostic, Position } from "./types.js";
 import { validateDocument } from "./validate.js";
+import { readYamlValue } from "./yaml-read.js";
+import { MAX_JSON_DEPTH, nestedTooDeep } from "./json-depth.js";
 
 export interface ParseOptions {
   /** File name used in diagnostics and errors. */
@@ -62,8 +62,8 @@ function normalizeLabel(label: string): string {
  */
 export function parseDocument(text: string, options: ParseOptions = {}): ParseResult {
   const { file } = options;
-  const lines = splitLines(text);
-  const lineText = (i: number): string => text.slice(lines[i]!.start, lines[i]!.end);
+  const lines = new LineTable(text);
+  const lineText = (i: number): string => text.slice(lines.start(i), lines.end(i));
   const first = lineText(0).replace(/^\uFEFF/, "");
   if (!/^---[ \t]*$/.test(first)) throw new DocumentError(messages.headerMissing(), { line: 1, column: 1 }, file);
   let close = -1;
@@ -74,11 +74,11 @@ export function parseDocument(text: string, options: ParseOptions = {}): ParseRe
     }
   }
   if (close < 0) throw new DocumentError(messages.headerUnclosed(), { line: 1, column: 1 }, file);
-  const headerEnd = lines[close]!.end;
-  const yamlText = text.slice(lines[1]!.start, lines[close]!.start);
+  const headerEnd = lines.end(close);
+  const yamlText = text.slice(lines.start(1), lines.start(close));
   const headerReading = readHeader(yamlText, 2, file);
 
-  const body = splitBody(text, headerEnd, file);
+  const body = readBody(text, headerEnd, file, lines);
   const diagnostics = [...headerReading.diagnostics, ...body.diagnostics];
   const document: ConebookDocument = {
     header: headerReading.header,
@@ -91,7 +91,8 @@ export function parseDocument(text: string, options: ParseOptions = {}): ParseRe
       trailing: body.trailing,
     },
   };
-  diagnostics.push(...validateDocument(document, { file }));
+  // One at a time: spreading a list of 100,000 diagnostics into push() overflows the stack.
+  for (const d of validateDocument(document, { file })) diagnostics.push(d);
   diagnostics.sort((a, b) => a.line - b.line || a.column - b.column);
   return { document, diagnostics };
 }
@@ -130,9 +131,13 @@ export interface BodyReading {
  * uses it to check that a regenerated narrative cell reads back as itself.
  */
 export function splitBody(text: string, from: number, file?: string): BodyReading {
-  const lines = splitLines(text);
-  const positions = new PositionMap(text);
-  const lineText = (i: number): string => text.slice(lines[i]!.start, lines[i]!.end);
+  return readBody(text, from, file, new LineTable(text));
+}
+
+/** splitBody over the lines of the text, split once by the caller. */
+function readBody(text: string, from: number, file: string | undefined, lines: LineTable): BodyReading {
+  const positions = new PositionMap(text, lines.starts);
+  const lineText = (i: number): string => text.slice(lines.start(i), lines.end(i));
   const diagnostics: Diagnostic[] = [];
   const warn = (entry: { code: string; message: string }, at: Position, id?: string): void => {
     diagnostics.push(diagnostic("warning", entry, at, file, id));
@@ -161,17 +166,23 @@ export function splitBody(text: string, from: number, file?: string): BodyReadin
         const at = { line: startLine + 1, column: fence.indent + 1 };
         if (!LANGUAGES[info.kind]!.includes(info.lang)) {
           fail(messages.cellLanguage(info.kind, info.lang, LANGUAGES[info.kind]!.map((l) => JSON.stringify(l)).join(" or ")), at);
-          blocks.push({ type: "content", start: lines[startLine]!.start, end: lines[endLine]!.end });
+          blocks.push({ type: "content", start: lines.start(startLine), end: lines.end(endLine) });
           continue;
         }
         const closed = endLine > startLine && closesFence(lineText(endLine), fence);
-        const inside = cellStartInside(lines.slice(startLine + 1, closed ? endLine : lines.length).map((l) => text.slice(l.start, l.end)).join("\n"));
+        let inside: { line: number; text: string } | undefined;
+        for (let j = startLine + 1, bodyEnd = closed ? endLine : lines.length; j < bodyEnd; j++) {
+          if (mayStartCell(text, lines.start(j), lines.end(j)) && startsCell(lineText(j))) {
+            inside = { line: j - startLine, text: lineText(j).trim() };
+            break;
+          }
+        }
         if (inside) warn(messages.fenceSwallowsCell(fence.char.repeat(fence.length), startLine + 1 + inside.line, inside.text), at, info.id);
         else if (!closed) warn(messages.fenceUnclosed(fence.char.repeat(fence.length)), at, info.id);
         blocks.push({
           type: "fenced",
-          start: lines[startLine]!.start,
-          end: closed ? lines[endLine]!.end : text.length,
+          start: lines.start(startLine),
+          end: closed ? lines.end(endLine) : text.length,
           line: startLine,
           fence,
           info,
@@ -181,27 +192,34 @@ export function splitBody(text: string, from: number, file?: string): BodyReadin
       }
     }
     while (endLine > startLine && isBlankLine(endLine)) endLine--;
-    blocks.push({ type: "content", start: lines[startLine]!.start, end: lines[endLine]!.end });
+    blocks.push({ type: "content", start: lines.start(startLine), end: lines.end(endLine) });
   }
   // Link reference definitions make no token: a line no block covers that reads as a narrative marker, and
   // whose label the parser recorded as a definition, is a marker.
   let next = 0;
   covered.sort((x, y) => x[0] - y[0]);
-  const firstLine = splitLines(text.slice(0, from)).length - 1;
+  // The line of `from`: the number of line breaks before it (a lone "\r" when `from` splits a "\r\n" counts).
+  const firstLine = positions.at(from).line - 1 + (text.charCodeAt(from - 1) === 13 && text.charCodeAt(from) === 10 ? 1 : 0);
   for (let i = firstLine; i < lines.length; i++) {
     while (next < covered.length && covered[next]![1] <= i) next++;
-    if (next < covered.length && covered[next]![0] <= i) continue;
+    if (next < covered.length && covered[next]![0] <= i) {
+      // Inside a block: its lines are covered up to its end.
+      i = covered[next]![1] - 1;
+      continue;
+    }
+    // Every marker starts with "[" in the first column: skip the other uncovered lines (mostly blank) at once.
+    if (text.charCodeAt(lines.start(i)) !== 91 || lines.start(i) >= lines.end(i)) continue;
     const line = lineText(i);
     const m = NARRATIVE_MARKER.exec(line);
     const r = m ? null : REVIEW_MARKER.exec(line);
     const references = env.references as Record<string, unknown> | undefined;
     const isDefinition = (): boolean => references !== undefined && normalizeLabel(line.slice(1, line.indexOf("]"))) in references;
     if (m && isDefinition()) {
-      blocks.push({ type: "marker", start: lines[i]!.start, end: lines[i]!.end, id: m[1] === "" || m[1] === undefined ? undefined : m[1] });
+      blocks.push({ type: "marker", start: lines.start(i), end: lines.end(i), id: m[1] === "" || m[1] === undefined ? undefined : m[1] });
     } else if (r && isDefinition()) {
-      blocks.push({ type: "marker", start: lines[i]!.start, end: lines[i]!.end, id: r[1]!, review: { on: r[2]!, status: r[3] as ReviewMark["status"] } });
+      blocks.push({ type: "marker", start: lines.start(i), end: lines.end(i), id: r[1]!, review: { on: r[2]!, status: r[3] as ReviewMark["status"] } });
     } else if (!m && REVIEW_MARKER_START.test(line) && isDefinition()) {
-      warn(messages.reviewMarkerUnread(), positions.at(lines[i]!.start));
+      warn(messages.reviewMarkerUnread(), positions.at(lines.start(i)));
     }
   }
   blocks.sort((x, y) => x.start - y.start);
@@ -315,21 +333,29 @@ interface FencedParts {
 }
 
 /** Cuts a fenced block into opening line, body and closing line, and reads the source from the body. */
-function fencedParts(text: string, lines: Line[], block: FencedBlock): FencedParts {
-  const open = lines[block.line]!;
+function fencedParts(text: string, lines: LineTable, block: FencedBlock): FencedParts {
+  const open = { start: lines.start(block.line), eolEnd: lines.eolEnd(block.line) };
   const head = text.slice(open.start, open.eolEnd);
-  const bodyEnd = block.closeLine >= 0 ? lines[block.closeLine]!.start : text.length;
+  const bodyEnd = block.closeLine >= 0 ? lines.start(block.closeLine) : text.length;
   const body = text.slice(open.eolEnd, Math.max(open.eolEnd, bodyEnd));
-  const tail = block.closeLine >= 0 ? text.slice(lines[block.closeLine]!.start, lines[block.closeLine]!.end) : "";
+  const tail = block.closeLine >= 0 ? text.slice(lines.start(block.closeLine), lines.end(block.closeLine)) : "";
   const indent = block.fence.indent;
   const source =
     indent === 0 ? dropFinalEol(body) : dropFinalEol(body.replace(new RegExp(`(^|\\r\\n|\\n|\\r) {0,${indent}}`, "g"), "$1"));
   return { head, body, tail, source, sourceStart: { line: block.line + 2, column: 1 + indent } };
 }
 
+/** The file position of an offset into a fenced block's source (whose lines lost the fence's indent). */
+function sourcePosition(parts: FencedParts, offset: number): Position {
+  const before = parts.source.slice(0, offset);
+  const lineStart = Math.max(before.lastIndexOf("\n"), before.lastIndexOf("\r")) + 1;
+  const breaks = before.match(/\r\n|\n|\r/g)?.length ?? 0;
+  return { line: parts.sourceStart.line + breaks, column: parts.sourceStart.column + offset - lineStart };
+}
+
 const KNOWN_ATTRIBUTES: Record<string, readonly string[]> = { code: [], data: ["name", "file", "sha256"], chart: [] };
 
-function fencedCell(text: string, lines: Line[], block: FencedBlock, leading: string, file: string | undefined, diagnostics: Diagnostic[]): Cell {
+function fencedCell(text: string, lines: LineTable, block: FencedBlock, leading: string, file: string | undefined, diagnostics: Diagnostic[]): Cell {
   const parts = fencedParts(text, lines, block);
   const { info } = block;
   const start: Position = { line: block.line + 1, column: block.fence.indent + 1 };
@@ -349,26 +375,36 @@ function fencedCell(text: string, lines: Line[], block: FencedBlock, leading: st
     diagnostics.push(diagnostic("warning", messages.attributeUnknown(key, info.kind), start, file, id));
   }
   const origin = { leading, head: parts.head, body: parts.body, tail: parts.tail, snapshot: "", idAssigned: id === "", start };
-  const base = { id, source: parts.source, sourceStart: parts.sourceStart, outputs: [] as CellOutput[], origin };
+  // Each cell is one object literal (keys in the order id, source, sourceStart, outputs, origin, kind, ...).
+  const { source, sourceStart } = parts;
   const withAttributes = <T extends Cell>(cell: T): T => {
     if (Object.keys(unknown).length > 0) cell.attributes = unknown;
     return cell;
   };
-  if (info.kind === "code") return withAttributes({ ...base, kind: "code", language: "ts" });
+  if (info.kind === "code") return withAttributes({ id, source, sourceStart, outputs: [] as CellOutput[], origin, kind: "code", language: "ts" });
   if (info.kind === "data") {
     const a = info.attributes;
-    const cell: Cell = { ...base, kind: "data", name: a.name ?? id, format: "csv" };
+    const cell: Cell = { id, source, sourceStart, outputs: [], origin, kind: "data", name: a.name ?? id, format: "csv" };
     if (a.file !== undefined || a.sha256 !== undefined) cell.file = { path: a.file ?? "", sha256: a.sha256 ?? "" };
     return withAttributes(cell);
   }
   const specFormat = info.lang as "json" | "yaml";
   let spec: Record<string, unknown> = {};
   try {
-    const value: unknown = specFormat === "json" ? JSON.parse(parts.source) : parseYaml(parts.source, { prettyErrors: false });
+    let value: unknown;
+    if (specFormat === "json") value = JSON.parse(parts.source);
+    else {
+      const reading = readYamlValue(parts.source);
+      value = reading.value;
+      for (const note of reading.notes) {
+        diagnostics.push(diagnostic("warning", messages.yamlPassedOver("chart specification", note.message), sourcePosition(parts, note.offset), file, id));
+      }
+    }
+    if (nestedTooDeep(value)) throw new SyntaxError(`it nests more than ${MAX_JSON_DEPTH} ${specFormat === "json" ? "arrays and objects" : "lists and mappings"} deep; flatten it`);
     if (typeof value === "object" && value !== null && !Array.isArray(value)) spec = value as Record<string, unknown>;
     else diagnostics.push(diagnostic("error", messages.chartNotObject(), parts.sourceStart, file, id));
   } catch (e) {
     diagnostics.push(diagnostic("error", messages.chartSyntax(specFormat.toUpperCase(), (e as Error).message.split("\n")[0]!), parts.sourceStart, file, id));
   }
-  return withAttributes({ ...base, kind: "chart", spec, specFormat });
+  return withAttributes({ id, source, sourceStart, outputs: [], origin, kind: "chart", spec, specFormat });
 }

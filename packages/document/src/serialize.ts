@@ -4,7 +4,7 @@
  * are generated in the canonical layout described in docs/format.md.
  */
 
-import { parse as parseYaml, stringify as stringifyYaml } from "yaml";
+import { stringify as stringifyYaml } from "yaml";
 import { bodyKey, markerKey, outputsKey } from "./cell-keys.js";
 import { DocumentError } from "./errors.js";
 import { closesFence, formatCellInfo, readCellInfo, readOpeningFence, safeFence } from "./fence.js";
@@ -15,6 +15,7 @@ import { writeOutputs } from "./outputs.js";
 import { splitBody } from "./parse.js";
 import { reviewMarker } from "./review-notes.js";
 import { isBlank, splitLines, stableStringify } from "./text.js";
+import { readYamlValue } from "./yaml-read.js";
 import type { Cell, ChartCell, ConebookDocument, DocumentHeader, Position } from "./types.js";
 
 export interface SerializeOptions {
@@ -143,7 +144,7 @@ function chartSource(cell: ChartCell): string {
 
 function sourceMatchesSpec(cell: ChartCell): boolean {
   try {
-    const parsed: unknown = cell.specFormat === "json" ? JSON.parse(cell.source) : parseYaml(cell.source);
+    const parsed: unknown = cell.specFormat === "json" ? JSON.parse(cell.source) : readYamlValue(cell.source).value;
     return stableStringify(parsed) === stableStringify(cell.spec);
   } catch {
     return false;

@@ -1,0 +1,26 @@
+/**
+ * `npm run soak`: the long versions of the fuzz and kill tests, one after the other, each in its own process:
+ * tests/soak/parser-fuzz.ts (10,000 mutated documents) and tests/soak/save-kills.ts (1,000 kills of
+ * `conebook run --write`). Options: --runs=N and --seed=N for the parser, --kills=N for the kills,
+ * --only=parser or --only=kills. Exit 1 when either fails.
+ */
+import { spawnSync } from "node:child_process";
+import { fileURLToPath } from "node:url";
+
+const arg = (name: string): string | undefined => process.argv.find((a) => a.startsWith(`--${name}=`))?.slice(name.length + 3);
+const only = arg("only");
+const here = (file: string): string => fileURLToPath(new URL(file, import.meta.url));
+const steps: { name: string; script: string; args: string[] }[] = [
+  { name: "parser", script: here("./parser-fuzz.ts"), args: [arg("runs") ?? "10000", ...(arg("seed") ? [arg("seed")!] : [])] },
+  { name: "kills", script: here("./save-kills.ts"), args: arg("kills") ? [`--kills=${arg("kills")}`] : [] },
+];
+let failed = 0;
+for (const step of steps) {
+  if (only !== undefined && only !== step.name) continue;
+  const r = spawnSync(process.execPath, ["--import", "tsx", step.script, ...step.args], { stdio: "inherit" });
+  if (r.status !== 0) {
+    failed++;
+    console.log(`soak: ${step.name} failed (exit ${r.status ?? r.signal})`);
+  }
+}
+process.exitCode = failed === 0 ? 0 : 1;
