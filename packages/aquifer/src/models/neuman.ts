@@ -9,7 +9,8 @@
  * Sources: Neuman, S.P. (1974), Water Resources Research 10(2), 303-312; the Laplace form as in Moench, A.F.
  * (1997), Water Resources Research 33(6), 1397-1407, for fully penetrating wells and instantaneous drainage.
  * The series and its truncation are in neuman-laplace.ts; the inversion is Stehfest's (neuman-stehfest.ts) from
- * t_s = 0.15 on and de Hoog's at complex p below (early-time-laplace.ts), where Stehfest's error grows above 1e-3.
+ * t_s = 0.15 on and de Hoog's at complex p below (neuman-early-laplace.ts: the series of early-time-laplace.ts in
+ * plain arithmetic, the same bits), where Stehfest's error grows above 1e-3.
  *
  * Geometry: beta depends on the saturated thickness b, which is not part of ObservationGeometry and does not
  * pass through the fitting engine's geometry records; so b is bound when the model is made:
@@ -23,6 +24,8 @@ import { transmissivityParameter } from "./parameters.js";
 import { deHoog, stehfestCoefficients } from "../numerics/index.js";
 import { expint1 } from "../special/index.js";
 import { neumanTransformComplex } from "./early-time-laplace.js";
+import { neumanTransformComplexFast } from "./neuman-early-laplace.js";
+import { complex, type Complex } from "../numerics/index.js";
 
 const FOUR_PI = 4 * Math.PI;
 
@@ -48,9 +51,17 @@ const EARLY_INVERSION = { order: 12, tolerance: 1e-9 } as const;
  */
 export const NEUMAN_THEIS_BELOW = 0.01;
 
+const EARLY_SCRATCH = { re: 0, im: 0 };
+
+/** F(p) at complex p: the plain-arithmetic evaluation, or the record-based one where a root needs its path from real c. */
+function earlyTransform(p: Complex, sigma: number, beta: number): Complex {
+  if (neumanTransformComplexFast(p.re, p.im, sigma, beta, EARLY_SCRATCH)) return complex(EARLY_SCRATCH.re, EARLY_SCRATCH.im);
+  return neumanTransformComplex(p, sigma, beta);
+}
+
 function earlyTime(ts: number, sigma: number, beta: number): number {
   if (ts < NEUMAN_THEIS_BELOW) return expint1(1 / (4 * ts));
-  return deHoog((p) => neumanTransformComplex(p, sigma, beta), ts, EARLY_INVERSION);
+  return deHoog((p) => earlyTransform(p, sigma, beta), ts, EARLY_INVERSION);
 }
 
 /** Relative truncation tolerance of the root series at each Laplace variable. */

@@ -1,0 +1,192 @@
+/**
+ * Neuman's (1974) transform at complex p for de Hoog's inversion at early time, in plain re/im arithmetic: the
+ * series, roots, weights, K0 and truncation of `neumanTransformComplex` (early-time-laplace.ts) with every
+ * operation of its complex records written out on re/im pairs in the same order, so that it returns the same
+ * bits (tested in models-neuman-early.test.ts) without a record per operation, with moduli by `hypot`
+ * (neuman-complex-k0.ts: the bits of Math.hypot at a sixth of its cost), and with the sine and cosine of each
+ * root formed once for the root test and the weight.
+ *
+ * Roots: Newton's method on h(eps) = eps - n pi - atan(c/eps) (principal atan) from the previous root plus pi,
+ * else from n pi + atan(c/(n pi + pi/4)), accepted when |eps sin eps - c cos eps| <= 1e-12 (|eps| + |c|) with
+ * Re eps in (n pi - pi/2, n pi + pi/2]; where neither start gives an accepted root (the reference then follows
+ * the root from real c) the caller is told to use the reference (returns false).
+ * Weights w_n = 4 sin^2 eps / (eps (2 eps + sin 2 eps)); terms w_n K0(sqrt(p + beta eps^2)); the series stops
+ * once three successive terms after n = 3 fall below 1e-14 of the sum.
+ */
+import { complexK0, divide, hypot, modulusBelow, type ComplexScratch } from "./neuman-complex-k0.js";
+import { portableCos, portableSin } from "../numerics/portable-math.js";
+
+const MAX_TERMS = 100000;
+const K0: ComplexScratch = { re: 0, im: 0 };
+const D: ComplexScratch = { re: 0, im: 0 };
+const ATAN: ComplexScratch = { re: 0, im: 0 };
+/** The last root with its sine and cosine. */
+const ROOT = { re: 0, im: 0, sinRe: 0, sinIm: 0, cosRe: 0, cosIm: 0 };
+
+/**
+ * Writes Neuman's transform F(p) = (2/p) sum_n w_n K0(sqrt(p + beta eps_n^2)) at complex p = pRe + i pIm
+ * (Re p > 0) for sigma = S/Sy > 0 and beta > 0 into `out` (dimensionless; the series as in neuman-laplace.ts),
+ * the same bits as `neumanTransformComplex`. Returns false, leaving `out` unspecified, where a root needs the
+ * reference's path from real c; the caller then evaluates `neumanTransformComplex`. Source: Neuman (1974), WRR
+ * 10(2) 303-312, in the Laplace form of Moench (1997), WRR 33(6) 1397-1407.
+ */
+export function neumanTransformComplexFast(pRe: number, pIm: number, sigma: number, beta: number, out: ComplexScratch): boolean {
+  const scale = 1 / (sigma * beta);
+  const cRe = pRe * scale;
+  const cIm = pIm * scale;
+  let sumRe = 0;
+  let sumIm = 0;
+  let small = 0;
+  let previous = false;
+  for (let n = 0; n < MAX_TERMS; n++) {
+    if (!root(n, cRe, cIm, previous)) return false;
+    previous = true;
+    const eRe = ROOT.re;
+    const eIm = ROOT.im;
+    const sRe = ROOT.sinRe;
+    const sIm = ROOT.sinIm;
+    // w = (4 s^2) / (e (2e + sin 2e)).
+    const ssRe = (sRe * sRe - sIm * sIm) * 4;
+    const ssIm = (sRe * sIm + sIm * sRe) * 4;
+    const twoRe = eRe * 2;
+    const twoIm = eIm * 2;
+    const gRe = twoRe + portableSin(twoRe) * Math.cosh(twoIm);
+    const gIm = twoIm + portableCos(twoRe) * Math.sinh(twoIm);
+    divide(ssRe, ssIm, eRe * gRe - eIm * gIm, eRe * gIm + eIm * gRe, D);
+    const wRe = D.re;
+    const wIm = D.im;
+    // x = sqrt(p + beta e^2), principal root.
+    const zRe = pRe + (eRe * eRe - eIm * eIm) * beta;
+    const zIm = pIm + (eRe * eIm + eIm * eRe) * beta;
+    let xRe: number;
+    let xIm: number;
+    if (zRe === 0 && zIm === 0) {
+      xRe = 0;
+      xIm = 0;
+    } else {
+      const m = hypot(zRe, zIm);
+      if (zRe >= 0) {
+        const t = Math.sqrt(0.5 * (m + zRe));
+        xRe = t;
+        xIm = zIm / (2 * t);
+      } else {
+        const t = Math.sqrt(0.5 * (m - zRe));
+        xRe = Math.abs(zIm) / (2 * t);
+        xIm = zIm >= 0 ? t : -t;
+      }
+    }
+    complexK0(xRe, xIm, K0);
+    const tRe = wRe * K0.re - wIm * K0.im;
+    const tIm = wRe * K0.im + wIm * K0.re;
+    sumRe = sumRe + tRe;
+    sumIm = sumIm + tIm;
+    if (n >= 3 && modulusBelow(tRe, tIm, 1e-14, sumRe, sumIm, true)) {
+      if (++small >= 3) break;
+    } else small = 0;
+  }
+  // (sum / p) 2.
+  divide(sumRe, sumIm, pRe, pIm, D);
+  out.re = D.re * 2;
+  out.im = D.im * 2;
+  return true;
+}
+
+/** Root n into ROOT (module comment); false where the reference would follow the root from real c. */
+function root(n: number, cRe: number, cIm: number, previous: boolean): boolean {
+  const base = n * Math.PI;
+  if (previous) {
+    newton(base, ROOT.re + Math.PI, ROOT.im + 0, cRe, cIm);
+    if (isRoot(base, cRe, cIm)) return true;
+  }
+  divide(cRe, cIm, base + Math.PI / 4, 0, D);
+  atan(D.re, D.im);
+  newton(base, base + ATAN.re, 0 + ATAN.im, cRe, cIm);
+  return isRoot(base, cRe, cIm);
+}
+
+/** Principal atan z = (i/2) ln((1 - i z)/(1 + i z)) into ATAN, the operations of the reference's catan. */
+function atan(zRe: number, zIm: number): void {
+  // iz = i z.
+  const izRe = 0 * zRe - 1 * zIm;
+  const izIm = 0 * zIm + 1 * zRe;
+  divide(1 - izRe, 0 - izIm, 1 + izRe, 0 + izIm, ATAN);
+  const lRe = Math.log(hypot(ATAN.re, ATAN.im));
+  const lIm = Math.atan2(ATAN.im, ATAN.re);
+  ATAN.re = 0 * lRe - 0.5 * lIm;
+  ATAN.im = 0 * lIm + 0.5 * lRe;
+}
+
+/** The reference's Newton iteration on h (at most 60 steps, until a step is below 1e-15 |eps|) into ROOT. */
+function newton(base: number, startRe: number, startIm: number, cRe: number, cIm: number): void {
+  let eRe = startRe;
+  let eIm = startIm;
+  for (let k = 0; k < 60; k++) {
+    divide(cRe, cIm, eRe, eIm, D);
+    atan(D.re, D.im);
+    // h = (e - base) - atan(c/e).
+    const hRe = eRe - base - ATAN.re;
+    const hIm = eIm - 0 - ATAN.im;
+    // slope = 1 + c / (e^2 + c^2).
+    const e2Re = eRe * eRe - eIm * eIm;
+    const e2Im = eRe * eIm + eIm * eRe;
+    const c2Re = cRe * cRe - cIm * cIm;
+    const c2Im = cRe * cIm + cIm * cRe;
+    divide(cRe, cIm, e2Re + c2Re, e2Im + c2Im, D);
+    const slopeRe = 1 + D.re;
+    const slopeIm = 0 + D.im;
+    divide(hRe, hIm, slopeRe, slopeIm, D);
+    const stepRe = D.re;
+    const stepIm = D.im;
+    eRe = eRe - stepRe;
+    eIm = eIm - stepIm;
+    if (!(Number.isFinite(eRe) && Number.isFinite(eIm))) break;
+    if (modulusBelow(stepRe, stepIm, 1e-15, eRe, eIm, true)) break;
+  }
+  ROOT.re = eRe;
+  ROOT.im = eIm;
+}
+
+/** The reference's acceptance test on ROOT; stores sin and cos of the root (portable sine and cosine). */
+function isRoot(base: number, cRe: number, cIm: number): boolean {
+  const eRe = ROOT.re;
+  const eIm = ROOT.im;
+  const ch = Math.cosh(eIm);
+  const sh = Math.sinh(eIm);
+  const sine = portableSin(eRe);
+  const cosine = portableCos(eRe);
+  const sRe = sine * ch;
+  const sIm = cosine * sh;
+  const coRe = cosine * ch;
+  const coIm = -sine * sh;
+  ROOT.sinRe = sRe;
+  ROOT.sinIm = sIm;
+  ROOT.cosRe = coRe;
+  ROOT.cosIm = coIm;
+  // e sin e - c cos e.
+  const gRe = eRe * sRe - eIm * sIm - (cRe * coRe - cIm * coIm);
+  const gIm = eRe * sIm + eIm * sRe - (cRe * coIm + cIm * coRe);
+  return (
+    Number.isFinite(eRe) &&
+    Number.isFinite(eIm) &&
+    residualSmall(gRe, gIm, eRe, eIm, cRe, cIm) &&
+    eRe > base - Math.PI / 2 &&
+    eRe <= base + Math.PI / 2 + 1e-9
+  );
+}
+
+/**
+ * hypot(g) <= 1e-12 (hypot(e) + hypot(c)), the same decision: from square roots of the squared moduli (within
+ * 2e-16 relative of hypot where every modulus lies in [1e-150, 1e150]) when more than 1e-12 relative from the
+ * boundary, else from `hypot`.
+ */
+function residualSmall(gRe: number, gIm: number, eRe: number, eIm: number, cRe: number, cIm: number): boolean {
+  const g = Math.sqrt(gRe * gRe + gIm * gIm);
+  const e = Math.sqrt(eRe * eRe + eIm * eIm);
+  const c = Math.sqrt(cRe * cRe + cIm * cIm);
+  if (g >= 1e-150 && g <= 1e150 && e >= 1e-150 && e <= 1e150 && c >= 1e-150 && c <= 1e150) {
+    const bound = 1e-12 * (e + c);
+    if (g < bound * (1 - 1e-12)) return true;
+    if (g > bound * (1 + 1e-12)) return false;
+  }
+  return hypot(gRe, gIm) <= 1e-12 * (hypot(eRe, eIm) + hypot(cRe, cIm));
+}

@@ -1,0 +1,103 @@
+import { describe, it, expect } from "vitest";
+import { neumanTransformComplex } from "../src/models/early-time-laplace.js";
+import { neumanTransformComplexFast } from "../src/models/neuman-early-laplace.js";
+import { complexK0, hypot, modulusBelow } from "../src/models/neuman-complex-k0.js";
+import { NEUMAN_DEHOOG_BELOW, NEUMAN_THEIS_BELOW, neumanDimensionless } from "../src/models/neuman.js";
+import { besselK0Complex, complex, deHoog } from "../src/numerics/index.js";
+import { uniformGenerator } from "../../../tests/support/seeded-noise.js";
+
+// These pin the plain-arithmetic early-time evaluation to the record-based one it replaces, bit for bit (the
+// recorded unconfined template's fit follows the exact bits of the Jacobian). The reference itself is checked
+// against mpmath in models-neuman.test.ts and numerics-laplace.test.ts.
+
+/** The de Hoog nodes the model uses at t_s (order 12, tolerance 1e-9, period 2 t_s): gamma + i k pi / (2 t_s). */
+function nodes(ts: number): { re: number; im: number }[] {
+  const gamma = -Math.log(1e-9) / (2 * 2 * ts);
+  return Array.from({ length: 25 }, (_, k) => ({ re: gamma, im: (k * Math.PI) / (2 * ts) }));
+}
+
+describe("Neuman's transform at complex p in plain arithmetic", () => {
+  it("gives the bits of the record-based reference at every de Hoog node (t_s 0.01..0.15, sigma 1e-4..1, beta 1e-3..10)", () => {
+    const out = { re: 0, im: 0 };
+    let compared = 0;
+    for (const ts of [0.01, 0.05, 0.149]) {
+      for (const sigma of [1e-4, 0.0167, 1]) {
+        for (const beta of [1e-3, 0.075, 10]) {
+          for (const p of nodes(ts)) {
+            const reference = neumanTransformComplex(complex(p.re, p.im), sigma, beta);
+            expect(neumanTransformComplexFast(p.re, p.im, sigma, beta, out)).toBe(true);
+            expect(out.re, `t_s ${ts}, sigma ${sigma}, beta ${beta}, p ${p.re} + ${p.im}i`).toBe(reference.re);
+            expect(out.im).toBe(reference.im);
+            compared++;
+          }
+        }
+      }
+    }
+    expect(compared).toBe(675);
+  });
+
+  it("gives the early-time drawdown bit for bit as de Hoog's inversion of the reference transform", () => {
+    for (const ts of [NEUMAN_THEIS_BELOW, 0.03, 0.08, 0.149]) {
+      for (const [sigma, beta] of [[0.0167, 0.075], [0.3, 2], [1e-3, 1e-3]] as const) {
+        const reference = deHoog((p) => neumanTransformComplex(p, sigma, beta), ts, { order: 12, tolerance: 1e-9 });
+        expect(ts).toBeLessThan(NEUMAN_DEHOOG_BELOW);
+        expect(neumanDimensionless(ts, sigma, beta)).toBe(reference);
+      }
+    }
+  });
+});
+
+describe("the plain-arithmetic helpers of the complex K0", () => {
+  it("hypot gives the bits of Math.hypot over 60 decades, with zeros, infinities and NaN", () => {
+    const u = uniformGenerator(20261204);
+    const differing: number[][] = [];
+    for (let i = 0; i < 100000; i++) {
+      const a = (u() - 0.5) * 10 ** Math.floor(60 * u() - 30);
+      const b = (u() - 0.5) * 10 ** (i % 3 === 0 ? Math.log10(Math.abs(a) + 1e-300) : Math.floor(60 * u() - 30));
+      if (hypot(a, b) !== Math.hypot(a, b)) differing.push([a, b]);
+    }
+    expect(differing).toEqual([]);
+    expect(hypot(0, -0)).toBe(0);
+    expect(hypot(-Infinity, Number.NaN)).toBe(Infinity);
+    expect(hypot(Number.NaN, 1)).toBeNaN();
+  });
+
+  it("modulusBelow decides as the comparison of hypot values does, also within 1e-13 of the boundary", () => {
+    const u = uniformGenerator(7);
+    const differing: number[][] = [];
+    let nearBoundary = 0;
+    for (let i = 0; i < 20000; i++) {
+      const scale = [1e-17, 1e-15, 1e-14][i % 3]!;
+      const bRe = (u() - 0.5) * 10 ** Math.floor(20 * u() - 10);
+      const bIm = (u() - 0.5) * 10 ** Math.floor(20 * u() - 10);
+      const angle = 2 * Math.PI * u();
+      // |a| within a few 1e-13 of the boundary scale |b| (and sometimes far from it).
+      const ratio = i % 5 === 0 ? 10 ** (4 * u() - 2) : 1 + (u() - 0.5) * 1e-12;
+      const size = scale * Math.hypot(bRe, bIm) * ratio;
+      const aRe = size * Math.cos(angle);
+      const aIm = size * Math.sin(angle);
+      for (const orEqual of [false, true]) {
+        const expected = orEqual
+          ? Math.hypot(aRe, aIm) <= scale * Math.hypot(bRe, bIm)
+          : Math.hypot(aRe, aIm) < scale * Math.hypot(bRe, bIm);
+        if (modulusBelow(aRe, aIm, scale, bRe, bIm, orEqual) !== expected) differing.push([aRe, aIm, scale, bRe, bIm]);
+      }
+      if (Math.abs(ratio - 1) < 1e-12) nearBoundary++;
+    }
+    expect(differing).toEqual([]);
+    expect(nearBoundary).toBeGreaterThan(10000);
+  });
+
+  it("complexK0 gives the bits of besselK0Complex for 0.01 <= |z| <= 300, |arg z| <= 1.2", () => {
+    const out = { re: 0, im: 0 };
+    for (const modulus of [0.01, 0.5, 1.9, 2, 2.1, 5, 17, 60, 300]) {
+      for (const angle of [-1.2, -0.5, 0, 0.3, 0.785, 1.2]) {
+        const z = complex(modulus * Math.cos(angle), modulus * Math.sin(angle));
+        const reference = besselK0Complex(z);
+        complexK0(z.re, z.im, out);
+        expect(out.re, `|z| ${modulus}, arg ${angle}`).toBe(reference.re);
+        expect(out.im).toBe(reference.im);
+      }
+    }
+  });
+});
