@@ -2,7 +2,7 @@ import { describe, it, expect } from "vitest";
 import { neumanTransformComplex } from "../src/models/early-time-laplace.js";
 import { neumanTransformComplexFast } from "../src/models/neuman-early-laplace.js";
 import { complexK0, hypot, modulusBelow } from "../src/models/neuman-complex-k0.js";
-import { NEUMAN_DEHOOG_BELOW, NEUMAN_THEIS_BELOW, neumanDimensionless } from "../src/models/neuman.js";
+import { NEUMAN_DEHOOG_BELOW, NEUMAN_THEIS_BELOW, neumanDimensionless, neumanModel } from "../src/models/neuman.js";
 import { besselK0Complex, complex, deHoog } from "../src/numerics/index.js";
 import { uniformGenerator } from "../../../tests/support/seeded-noise.js";
 
@@ -44,6 +44,25 @@ describe("Neuman's transform at complex p in plain arithmetic", () => {
         expect(neumanDimensionless(ts, sigma, beta)).toBe(reference);
       }
     }
+  });
+});
+
+describe("the Neuman Jacobian after a drawdown call at the same parameters", () => {
+  it("gives the same columns, bit for bit, as a Jacobian without the preceding call (early points reuse s_D)", () => {
+    const parameters = [150, 2e-3, 0.12, 0.3];
+    const geometry = { r: 25, Q: 800 };
+    // t from 1e-4 d: t_s = T t / (S r^2) from 0.012, so the first points are inverted by de Hoog.
+    const t = Float64Array.from({ length: 12 }, (_, i) => 1e-4 * 2 ** i);
+    const warmed = neumanModel(20);
+    const drawdown = warmed.drawdown(parameters, geometry, t);
+    const after = warmed.jacobian!(parameters, geometry, t);
+    const alone = neumanModel(20).jacobian!(parameters, geometry, t);
+    expect((150 * t[0]!) / (2e-3 * 25 * 25)).toBeLessThan(NEUMAN_DEHOOG_BELOW);
+    expect(after.map((c) => Array.from(c))).toEqual(alone.map((c) => Array.from(c)));
+    // And after a call at other parameters nothing stale is used.
+    warmed.drawdown([120, 2e-3, 0.12, 0.3], geometry, t);
+    expect(warmed.jacobian!(parameters, geometry, t).map((c) => Array.from(c))).toEqual(alone.map((c) => Array.from(c)));
+    expect(drawdown[0]).toBeGreaterThan(0);
   });
 });
 
