@@ -1,7 +1,7 @@
 import { describe, it, expect } from "vitest";
 import { neumanTransformComplex } from "../src/models/early-time-laplace.js";
 import { neumanTransformComplexFast } from "../src/models/neuman-early-laplace.js";
-import { complexK0, hypot, modulusBelow } from "../src/models/neuman-complex-k0.js";
+import { complexK0, complexK0Pair, hypot, modulusBelow } from "../src/models/neuman-complex-k0.js";
 import { NEUMAN_DEHOOG_BELOW, NEUMAN_THEIS_BELOW, neumanDimensionless, neumanModel } from "../src/models/neuman.js";
 import { besselK0Complex, complex, deHoog } from "../src/numerics/index.js";
 import { uniformGenerator } from "../../../tests/support/seeded-noise.js";
@@ -116,6 +116,19 @@ describe("the plain-arithmetic helpers of the complex K0", () => {
         complexK0(z.re, z.im, out);
         expect(out.re, `|z| ${modulus}, arg ${angle}`).toBe(reference.re);
         expect(out.im).toBe(reference.im);
+      }
+    }
+  });
+
+  it("complexK0Pair gives the bits of two besselK0Complex calls, also when the two stop at different iterations", () => {
+    const first = { re: 0, im: 0 };
+    const second = { re: 0, im: 0 };
+    const arguments_ = [complex(2.01, 0), complex(3, -2.5), complex(7.5, 6), complex(40, 1), complex(250, -80)];
+    for (const a of arguments_) {
+      for (const b of arguments_) {
+        complexK0Pair(a.re, a.im, b.re, b.im, first, second);
+        expect([first.re, first.im]).toEqual([besselK0Complex(a).re, besselK0Complex(a).im]);
+        expect([second.re, second.im]).toEqual([besselK0Complex(b).re, besselK0Complex(b).im]);
       }
     }
   });

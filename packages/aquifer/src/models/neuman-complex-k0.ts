@@ -138,6 +138,12 @@ export function complexK0(re: number, im: number, out: ComplexScratch): void {
     sIm = sIm + delsIm;
     if (modulusBelow(delsRe, delsIm, 1e-17, sRe, sIm, false)) break;
   }
+  finish(re, im, sRe, sIm, out);
+}
+
+
+/** K0(z) = sqrt(pi/2 / z) e^(-z) / s into `out`, the reference's operations in order. */
+function finish(re: number, im: number, sRe: number, sIm: number, out: ComplexScratch): void {
   // prefactor = sqrt(pi/2 / z) e^(-z).
   divide(Math.PI / 2, 0, re, im);
   const gRe = Q.re;
@@ -167,4 +173,116 @@ export function complexK0(re: number, im: number, out: ComplexScratch): void {
   const pRe = rootRe * eRe - rootIm * eIm;
   const pIm = rootRe * eIm + rootIm * eRe;
   divide(pRe, pIm, sRe, sIm, out);
+}
+
+/** Whether `complexK0` takes Steed's continued fraction at z (finite, Re z > 0, |z| > 2). */
+export function continuedFractionApplies(re: number, im: number): boolean {
+  return re > 0 && Number.isFinite(re) && Number.isFinite(im) && hypot(re, im) > 2;
+}
+
+/**
+ * K0 at two arguments z1, z2 at which `continuedFractionApplies`, into out1 and out2: the two continued
+ * fractions of `complexK0` advanced in one loop, each by exactly its own operations and stopped at its own test
+ * (so the same bits as two calls), which lets the processor overlap their chains of dependent divisions.
+ * Dimensionless. Source: Thompson & Barnett (1987), as `complexK0`.
+ */
+export function complexK0Pair(re1: number, im1: number, re2: number, im2: number, out1: ComplexScratch, out2: ComplexScratch): void {
+  let bRe1 = (1 + re1) * 2;
+  let bIm1 = (0 + im1) * 2;
+  let bRe2 = (1 + re2) * 2;
+  let bIm2 = (0 + im2) * 2;
+  divide(1, 0, bRe1, bIm1);
+  let dRe1 = Q.re;
+  let dIm1 = Q.im;
+  divide(1, 0, bRe2, bIm2);
+  let dRe2 = Q.re;
+  let dIm2 = Q.im;
+  let delhRe1 = dRe1;
+  let delhIm1 = dIm1;
+  let delhRe2 = dRe2;
+  let delhIm2 = dIm2;
+  let q1Re1 = 0;
+  let q1Im1 = 0;
+  let q2Re1 = 1;
+  let q2Im1 = 0;
+  let q1Re2 = 0;
+  let q1Im2 = 0;
+  let q2Re2 = 1;
+  let q2Im2 = 0;
+  const a1 = 0.25;
+  let qRe1 = a1;
+  let qIm1 = 0;
+  let qRe2 = a1;
+  let qIm2 = 0;
+  // c and a follow the same sequence in both fractions.
+  let cRe = a1;
+  let cIm = 0;
+  let a = -a1;
+  let sRe1 = 1 + (qRe1 * delhRe1 - qIm1 * delhIm1);
+  let sIm1 = 0 + (qRe1 * delhIm1 + qIm1 * delhRe1);
+  let sRe2 = 1 + (qRe2 * delhRe2 - qIm2 * delhIm2);
+  let sIm2 = 0 + (qRe2 * delhIm2 + qIm2 * delhRe2);
+  let running1 = true;
+  let running2 = true;
+  for (let i = 2; i <= MAX_TERMS && (running1 || running2); i++) {
+    a -= 2 * (i - 1);
+    const cScale = -a / i;
+    cRe = cRe * cScale;
+    cIm = cIm * cScale;
+    const inverse = 1 / a;
+    if (running1) {
+      const qNewRe = (q1Re1 - (bRe1 * q2Re1 - bIm1 * q2Im1)) * inverse;
+      const qNewIm = (q1Im1 - (bRe1 * q2Im1 + bIm1 * q2Re1)) * inverse;
+      q1Re1 = q2Re1;
+      q1Im1 = q2Im1;
+      q2Re1 = qNewRe;
+      q2Im1 = qNewIm;
+      qRe1 = qRe1 + (cRe * qNewRe - cIm * qNewIm);
+      qIm1 = qIm1 + (cRe * qNewIm + cIm * qNewRe);
+      bRe1 = bRe1 + 2;
+      bIm1 = bIm1 + 0;
+      divide(1, 0, bRe1 + dRe1 * a, bIm1 + dIm1 * a);
+      dRe1 = Q.re;
+      dIm1 = Q.im;
+      const fRe = bRe1 * dRe1 - bIm1 * dIm1 - 1;
+      const fIm = bRe1 * dIm1 + bIm1 * dRe1 - 0;
+      const nRe = fRe * delhRe1 - fIm * delhIm1;
+      const nIm = fRe * delhIm1 + fIm * delhRe1;
+      delhRe1 = nRe;
+      delhIm1 = nIm;
+      const delsRe = qRe1 * delhRe1 - qIm1 * delhIm1;
+      const delsIm = qRe1 * delhIm1 + qIm1 * delhRe1;
+      sRe1 = sRe1 + delsRe;
+      sIm1 = sIm1 + delsIm;
+      if (modulusBelow(delsRe, delsIm, 1e-17, sRe1, sIm1, false)) running1 = false;
+    }
+    if (running2) {
+      const qNewRe = (q1Re2 - (bRe2 * q2Re2 - bIm2 * q2Im2)) * inverse;
+      const qNewIm = (q1Im2 - (bRe2 * q2Im2 + bIm2 * q2Re2)) * inverse;
+      q1Re2 = q2Re2;
+      q1Im2 = q2Im2;
+      q2Re2 = qNewRe;
+      q2Im2 = qNewIm;
+      qRe2 = qRe2 + (cRe * qNewRe - cIm * qNewIm);
+      qIm2 = qIm2 + (cRe * qNewIm + cIm * qNewRe);
+      bRe2 = bRe2 + 2;
+      bIm2 = bIm2 + 0;
+      divide(1, 0, bRe2 + dRe2 * a, bIm2 + dIm2 * a);
+      dRe2 = Q.re;
+      dIm2 = Q.im;
+      const fRe = bRe2 * dRe2 - bIm2 * dIm2 - 1;
+      const fIm = bRe2 * dIm2 + bIm2 * dRe2 - 0;
+      const nRe = fRe * delhRe2 - fIm * delhIm2;
+      const nIm = fRe * delhIm2 + fIm * delhRe2;
+      delhRe2 = nRe;
+      delhIm2 = nIm;
+      const delsRe = qRe2 * delhRe2 - qIm2 * delhIm2;
+      const delsIm = qRe2 * delhIm2 + qIm2 * delhRe2;
+      sRe2 = sRe2 + delsRe;
+      sIm2 = sIm2 + delsIm;
+      if (modulusBelow(delsRe, delsIm, 1e-17, sRe2, sIm2, false)) running2 = false;
+    }
+  }
+  finish(re1, im1, sRe1, sIm1, out1);
+  finish(re2, im2, sRe2, sIm2, out2);
 }

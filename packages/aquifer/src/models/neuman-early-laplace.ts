@@ -13,7 +13,15 @@
  * Weights w_n = 4 sin^2 eps / (eps (2 eps + sin 2 eps)); terms w_n K0(sqrt(p + beta eps^2)); the series stops
  * once three successive terms after n = 3 fall below 1e-14 of the sum.
  */
-import { complexK0, divide, hypot, modulusBelow, type ComplexScratch } from "./neuman-complex-k0.js";
+import {
+  complexK0,
+  complexK0Pair,
+  continuedFractionApplies,
+  divide,
+  hypot,
+  modulusBelow,
+  type ComplexScratch,
+} from "./neuman-complex-k0.js";
 import { portableCos, portableSin } from "../numerics/portable-math.js";
 
 const MAX_TERMS = 100000;
@@ -34,61 +42,119 @@ export function neumanTransformComplexFast(pRe: number, pIm: number, sigma: numb
   const scale = 1 / (sigma * beta);
   const cRe = pRe * scale;
   const cIm = pIm * scale;
-  let sumRe = 0;
-  let sumIm = 0;
-  let small = 0;
-  let previous = false;
-  for (let n = 0; n < MAX_TERMS; n++) {
-    if (!root(n, cRe, cIm, previous)) return false;
-    previous = true;
-    const eRe = ROOT.re;
-    const eIm = ROOT.im;
-    const sRe = ROOT.sinRe;
-    const sIm = ROOT.sinIm;
-    // w = (4 s^2) / (e (2e + sin 2e)).
-    const ssRe = (sRe * sRe - sIm * sIm) * 4;
-    const ssIm = (sRe * sIm + sIm * sRe) * 4;
-    const twoRe = eRe * 2;
-    const twoIm = eIm * 2;
-    const gRe = twoRe + portableSin(twoRe) * Math.cosh(twoIm);
-    const gIm = twoIm + portableCos(twoRe) * Math.sinh(twoIm);
-    divide(ssRe, ssIm, eRe * gRe - eIm * gIm, eRe * gIm + eIm * gRe, D);
-    const wRe = D.re;
-    const wIm = D.im;
-    // x = sqrt(p + beta e^2), principal root.
-    const zRe = pRe + (eRe * eRe - eIm * eIm) * beta;
-    const zIm = pIm + (eRe * eIm + eIm * eRe) * beta;
-    let xRe: number;
-    let xIm: number;
-    if (zRe === 0 && zIm === 0) {
-      xRe = 0;
-      xIm = 0;
+  const series = SERIES;
+  series.re = 0;
+  series.im = 0;
+  series.small = 0;
+  // Terms are prepared one ahead so that two K0 continued fractions run in one loop (complexK0Pair); a term
+  // prepared beyond the last one summed changes nothing, and where its root needs the reference's path the
+  // reference is asked only if the series did not stop first.
+  let carried = false;
+  let n = 0;
+  while (n < MAX_TERMS) {
+    if (carried) {
+      copyTerm(NEXT, TERM);
+      carried = false;
     } else {
-      const m = hypot(zRe, zIm);
-      if (zRe >= 0) {
-        const t = Math.sqrt(0.5 * (m + zRe));
-        xRe = t;
-        xIm = zIm / (2 * t);
-      } else {
-        const t = Math.sqrt(0.5 * (m - zRe));
-        xRe = Math.abs(zIm) / (2 * t);
-        xIm = zIm >= 0 ? t : -t;
-      }
+      if (!prepareTerm(n, pRe, pIm, cRe, cIm, beta, TERM)) return false;
     }
-    complexK0(xRe, xIm, K0);
-    const tRe = wRe * K0.re - wIm * K0.im;
-    const tIm = wRe * K0.im + wIm * K0.re;
-    sumRe = sumRe + tRe;
-    sumIm = sumIm + tIm;
-    if (n >= 3 && modulusBelow(tRe, tIm, 1e-14, sumRe, sumIm, true)) {
-      if (++small >= 3) break;
-    } else small = 0;
+    let nextFailed = false;
+    if (n + 1 < MAX_TERMS && continuedFractionApplies(TERM.xRe, TERM.xIm)) {
+      if (prepareTerm(n + 1, pRe, pIm, cRe, cIm, beta, NEXT)) {
+        if (continuedFractionApplies(NEXT.xRe, NEXT.xIm)) {
+          complexK0Pair(TERM.xRe, TERM.xIm, NEXT.xRe, NEXT.xIm, K0, K0_NEXT);
+          if (addTerm(n, TERM, K0, series)) break;
+          if (addTerm(n + 1, NEXT, K0_NEXT, series)) break;
+          n += 2;
+          continue;
+        }
+        carried = true;
+      } else nextFailed = true;
+    }
+    complexK0(TERM.xRe, TERM.xIm, K0);
+    if (addTerm(n, TERM, K0, series)) break;
+    if (nextFailed) return false;
+    n += 1;
   }
   // (sum / p) 2.
-  divide(sumRe, sumIm, pRe, pIm, D);
+  divide(series.re, series.im, pRe, pIm, D);
   out.re = D.re * 2;
   out.im = D.im * 2;
   return true;
+}
+
+/** One term's weight w and argument x of K0. */
+interface Term {
+  wRe: number;
+  wIm: number;
+  xRe: number;
+  xIm: number;
+}
+
+const TERM: Term = { wRe: 0, wIm: 0, xRe: 0, xIm: 0 };
+const NEXT: Term = { wRe: 0, wIm: 0, xRe: 0, xIm: 0 };
+const K0_NEXT: ComplexScratch = { re: 0, im: 0 };
+/** The partial sum and the count of successive small terms. */
+const SERIES = { re: 0, im: 0, small: 0 };
+
+function copyTerm(from: Term, to: Term): void {
+  to.wRe = from.wRe;
+  to.wIm = from.wIm;
+  to.xRe = from.xRe;
+  to.xIm = from.xIm;
+}
+
+/**
+ * Root n (from ROOT, root n - 1, for n >= 1), weight and K0 argument of term n into `term`; false where the root
+ * needs the reference's path.
+ */
+function prepareTerm(n: number, pRe: number, pIm: number, cRe: number, cIm: number, beta: number, term: Term): boolean {
+  if (!root(n, cRe, cIm, n > 0)) return false;
+  const eRe = ROOT.re;
+  const eIm = ROOT.im;
+  const sRe = ROOT.sinRe;
+  const sIm = ROOT.sinIm;
+  // w = (4 s^2) / (e (2e + sin 2e)).
+  const ssRe = (sRe * sRe - sIm * sIm) * 4;
+  const ssIm = (sRe * sIm + sIm * sRe) * 4;
+  const twoRe = eRe * 2;
+  const twoIm = eIm * 2;
+  const gRe = twoRe + portableSin(twoRe) * Math.cosh(twoIm);
+  const gIm = twoIm + portableCos(twoRe) * Math.sinh(twoIm);
+  divide(ssRe, ssIm, eRe * gRe - eIm * gIm, eRe * gIm + eIm * gRe, D);
+  term.wRe = D.re;
+  term.wIm = D.im;
+  // x = sqrt(p + beta e^2), principal root.
+  const zRe = pRe + (eRe * eRe - eIm * eIm) * beta;
+  const zIm = pIm + (eRe * eIm + eIm * eRe) * beta;
+  if (zRe === 0 && zIm === 0) {
+    term.xRe = 0;
+    term.xIm = 0;
+  } else {
+    const m = hypot(zRe, zIm);
+    if (zRe >= 0) {
+      const t = Math.sqrt(0.5 * (m + zRe));
+      term.xRe = t;
+      term.xIm = zIm / (2 * t);
+    } else {
+      const t = Math.sqrt(0.5 * (m - zRe));
+      term.xRe = Math.abs(zIm) / (2 * t);
+      term.xIm = zIm >= 0 ? t : -t;
+    }
+  }
+  return true;
+}
+
+/** Adds term n = w K0 to the series; true when the series stops there (the reference's rule). */
+function addTerm(n: number, term: Term, k0: ComplexScratch, series: typeof SERIES): boolean {
+  const tRe = term.wRe * k0.re - term.wIm * k0.im;
+  const tIm = term.wRe * k0.im + term.wIm * k0.re;
+  series.re = series.re + tRe;
+  series.im = series.im + tIm;
+  if (n >= 3 && modulusBelow(tRe, tIm, 1e-14, series.re, series.im, true)) {
+    if (++series.small >= 3) return true;
+  } else series.small = 0;
+  return false;
 }
 
 /** Root n into ROOT (module comment); false where the reference would follow the root from real c. */
