@@ -228,6 +228,24 @@ export function laplaceModelBenchmarks(): Measurement[] {
   const neumanStehfest = (k: number, i: number) => (nT * NEUMAN.t[i]!) / (nS * NEUMAN.distances[k]! ** 2) >= NEUMAN_DEHOOG_BELOW;
   const neumanAgreement = peer ? agreement(neumanValues, peer.neuman!.values as number[][], 1e-6, neumanStehfest) : null;
   if (neumanAgreement) requireAgreement("Neuman", neumanAgreement, 1e-9);
+  // The same grid split by inversion (Stehfest from t_s = 0.15 on, de Hoog below), to show where the time goes;
+  // each part must give the values of the whole grid.
+  const split = (stehfest: boolean) => {
+    const times = NEUMAN.distances.map((_, k) => Float64Array.from(NEUMAN.t.filter((_, i) => neumanStehfest(k, i) === stehfest)));
+    const count = times.reduce((n, t) => n + t.length, 0);
+    const ms = bestOf(
+      7,
+      () => NEUMAN.distances.map((r, k) => neuman.drawdown(NEUMAN.parameters, { r, Q: NEUMAN.Q }, times[k]!)),
+      (values) =>
+        values.forEach((v, k) => {
+          const whole = neumanValues[k]!.filter((_, i) => neumanStehfest(k, i) === stehfest);
+          if (v.some((x, i) => x !== whole[i])) throw new Error("Neuman: the split grid gives other values than the whole grid");
+        }),
+    );
+    return { count, usPerPoint: count > 0 ? (ms * 1e3) / count : 0 };
+  };
+  const neumanLate = split(true);
+  const neumanEarly = split(false);
 
   // 2b. Neuman fit.
   let fitSummary = "";
@@ -306,7 +324,9 @@ export function laplaceModelBenchmarks(): Measurement[] {
       target: { absolute: 20 },
       note:
         `r = ${NEUMAN.distances.join(", ")} m (beta ${NEUMAN.distances.map((r) => ((NEUMAN.parameters[3] * r * r) / (NEUMAN.b * NEUMAN.b)).toPrecision(2)).join(", ")}), ` +
-        `t in [1e-4, 5] d, Stehfest N = ${NEUMAN_STEHFEST_TERMS}, series tolerance ${NEUMAN_SERIES_TOLERANCE}; ${agreementNote(neumanAgreement)}`,
+        `t in [1e-4, 5] d, Stehfest N = ${NEUMAN_STEHFEST_TERMS}, series tolerance ${NEUMAN_SERIES_TOLERANCE}; ` +
+        `timed apart: ${neumanLate.count} Stehfest points ${neumanLate.usPerPoint.toFixed(1)} us/point, ` +
+        `${neumanEarly.count} de Hoog points (t_s < ${NEUMAN_DEHOOG_BELOW}) ${neumanEarly.usPerPoint.toFixed(0)} us/point; ${agreementNote(neumanAgreement)}`,
     },
     {
       name: `Neuman fit, ${fitPoints} points, 4 parameters`,
