@@ -50,11 +50,14 @@ export function hypot(a: number, b: number): number {
   const x = Math.abs(a);
   const y = Math.abs(b);
   if (!(x < Infinity && y < Infinity)) return Math.hypot(a, b);
-  const max = x > y ? x : y;
-  if (max === 0) return 0;
-  const u = x / max;
-  const v = y / max;
-  return Math.sqrt(u * u + v * v) * max;
+  // The larger argument divided by itself is exactly 1.
+  if (x >= y) {
+    if (x === 0) return 0;
+    const v = y / x;
+    return Math.sqrt(1 + v * v) * x;
+  }
+  const u = x / y;
+  return Math.sqrt(u * u + 1) * y;
 }
 
 /**
