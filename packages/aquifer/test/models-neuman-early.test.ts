@@ -47,6 +47,28 @@ describe("Neuman's transform at complex p in plain arithmetic", () => {
   });
 });
 
+describe("the early-time sensitivities", () => {
+  it("are the forward differences of single evaluations bit for bit, with and without shared roots for sigma and beta", () => {
+    const up = Math.exp(1e-5);
+    let shared = 0;
+    let apart = 0;
+    const d = new Float64Array(4);
+    for (const ts of [0.02, 0.07, 0.14]) {
+      for (const [sigma, beta] of [[0.0167, 0.075], [0.0167, 0.47], [0.3, 2], [0.123, 0.0456], [0.05, 0.3]] as const) {
+        if ((sigma * up) * beta === sigma * (beta * up)) shared++;
+        else apart++;
+        const value = neumanDimensionless(ts, sigma, beta, d);
+        expect(d[0]).toBe(value);
+        expect(d[1]).toBe((neumanDimensionless(ts * up, sigma, beta) - value) / 1e-5);
+        expect(d[2], `t_s ${ts}, sigma ${sigma}, beta ${beta}`).toBe((neumanDimensionless(ts, sigma * up, beta) - value) / (1e-5 * sigma));
+        expect(d[3]).toBe((neumanDimensionless(ts, sigma, beta * up) - value) / (1e-5 * beta));
+      }
+    }
+    expect(shared).toBeGreaterThan(0);
+    expect(apart).toBeGreaterThan(0);
+  });
+});
+
 describe("the Neuman Jacobian after a drawdown call at the same parameters", () => {
   it("gives the same columns, bit for bit, as a Jacobian without the preceding call (early points reuse s_D)", () => {
     const parameters = [150, 2e-3, 0.12, 0.3];

@@ -76,10 +76,7 @@ export function neumanTransformComplexFast(pRe: number, pIm: number, sigma: numb
     if (nextFailed) return false;
     n += 1;
   }
-  // (sum / p) 2.
-  divide(series.re, series.im, pRe, pIm, D);
-  out.re = D.re * 2;
-  out.im = D.im * 2;
+  finishTransform(series, pRe, pIm, out);
   return true;
 }
 
@@ -124,25 +121,113 @@ function prepareTerm(n: number, pRe: number, pIm: number, cRe: number, cIm: numb
   divide(ssRe, ssIm, eRe * gRe - eIm * gIm, eRe * gIm + eIm * gRe, D);
   term.wRe = D.re;
   term.wIm = D.im;
-  // x = sqrt(p + beta e^2), principal root.
+  argument(pRe, pIm, eRe, eIm, beta, term);
+  return true;
+}
+
+/** x = sqrt(p + beta e^2) (principal root) into `term`. */
+function argument(pRe: number, pIm: number, eRe: number, eIm: number, beta: number, term: Term): void {
   const zRe = pRe + (eRe * eRe - eIm * eIm) * beta;
   const zIm = pIm + (eRe * eIm + eIm * eRe) * beta;
   if (zRe === 0 && zIm === 0) {
     term.xRe = 0;
     term.xIm = 0;
+    return;
+  }
+  const m = hypot(zRe, zIm);
+  if (zRe >= 0) {
+    const t = Math.sqrt(0.5 * (m + zRe));
+    term.xRe = t;
+    term.xIm = zIm / (2 * t);
   } else {
-    const m = hypot(zRe, zIm);
-    if (zRe >= 0) {
-      const t = Math.sqrt(0.5 * (m + zRe));
-      term.xRe = t;
-      term.xIm = zIm / (2 * t);
+    const t = Math.sqrt(0.5 * (m - zRe));
+    term.xRe = Math.abs(zIm) / (2 * t);
+    term.xIm = zIm >= 0 ? t : -t;
+  }
+}
+
+const SERIES_TWIN = { re: 0, im: 0, small: 0 };
+
+/**
+ * The transform for two betas that share c = p / (sigma beta), as the two forward differences of the early-time
+ * sensitivities in sigma and in beta do when (sigma up) beta and sigma (beta up) round alike: F(p; c, beta1) into
+ * out1 and F(p; c, beta2) into out2, where `scale` = 1 / (sigma beta) as the single evaluation forms it. The roots
+ * and weights depend on c alone and are formed once; each series keeps its own K0 arguments, sum and stopping
+ * test, so each value has the bits of {@link neumanTransformComplexFast} for its own (sigma, beta). Returns a mask:
+ * 1 when out1 holds its value, 2 when out2 does (a series whose root needs the reference's path is left out).
+ * Dimensionless. Source: as neumanTransformComplexFast.
+ */
+export function neumanTransformComplexTwin(
+  pRe: number,
+  pIm: number,
+  scale: number,
+  beta1: number,
+  beta2: number,
+  out1: ComplexScratch,
+  out2: ComplexScratch,
+): number {
+  const cRe = pRe * scale;
+  const cIm = pIm * scale;
+  const first = SERIES;
+  const second = SERIES_TWIN;
+  first.re = 0;
+  first.im = 0;
+  first.small = 0;
+  second.re = 0;
+  second.im = 0;
+  second.small = 0;
+  let running1 = true;
+  let running2 = true;
+  let done = 0;
+  let failed = false;
+  for (let n = 0; n < MAX_TERMS && (running1 || running2); n++) {
+    if (!prepareTerm(n, pRe, pIm, cRe, cIm, beta1, TERM)) {
+      failed = true;
+      break;
+    }
+    copyTerm(TERM, NEXT);
+    argument(pRe, pIm, ROOT.re, ROOT.im, beta2, NEXT);
+    if (
+      running1 &&
+      running2 &&
+      continuedFractionApplies(TERM.xRe, TERM.xIm) &&
+      continuedFractionApplies(NEXT.xRe, NEXT.xIm)
+    ) {
+      complexK0Pair(TERM.xRe, TERM.xIm, NEXT.xRe, NEXT.xIm, K0, K0_NEXT);
     } else {
-      const t = Math.sqrt(0.5 * (m - zRe));
-      term.xRe = Math.abs(zIm) / (2 * t);
-      term.xIm = zIm >= 0 ? t : -t;
+      if (running1) complexK0(TERM.xRe, TERM.xIm, K0);
+      if (running2) complexK0(NEXT.xRe, NEXT.xIm, K0_NEXT);
+    }
+    if (running1 && addTerm(n, TERM, K0, first)) {
+      running1 = false;
+      finishTransform(first, pRe, pIm, out1);
+      done |= 1;
+    }
+    if (running2 && addTerm(n, NEXT, K0_NEXT, second)) {
+      running2 = false;
+      finishTransform(second, pRe, pIm, out2);
+      done |= 2;
     }
   }
-  return true;
+  if (!failed) {
+    // MAX_TERMS summed without stopping: the single evaluation returns that sum.
+    if (running1) {
+      finishTransform(first, pRe, pIm, out1);
+      done |= 1;
+    }
+    if (running2) {
+      finishTransform(second, pRe, pIm, out2);
+      done |= 2;
+    }
+  }
+  return done;
+}
+
+/** (sum / p) 2 into `out`, by Smith's division. */
+function finishTransform(series: typeof SERIES, pRe: number, pIm: number, out: ComplexScratch): void {
+  divide(series.re, series.im, pRe, pIm, D);
+  out.re = D.re * 2;
+  out.im = D.im * 2;
 }
 
 /** Adds term n = w K0 to the series; true when the series stops there (the reference's rule). */

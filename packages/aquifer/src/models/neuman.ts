@@ -24,7 +24,7 @@ import { transmissivityParameter } from "./parameters.js";
 import { deHoog, stehfestCoefficients } from "../numerics/index.js";
 import { expint1 } from "../special/index.js";
 import { neumanTransformComplex } from "./early-time-laplace.js";
-import { neumanTransformComplexFast } from "./neuman-early-laplace.js";
+import { neumanTransformComplexFast, neumanTransformComplexTwin } from "./neuman-early-laplace.js";
 import { complex, type Complex } from "../numerics/index.js";
 
 const FOUR_PI = 4 * Math.PI;
@@ -69,8 +69,49 @@ function earlySensitivities(ts: number, sigma: number, beta: number, value: numb
   const up = Math.exp(EARLY_STEP);
   sensitivities[0] = value;
   sensitivities[1] = (earlyTime(ts * up, sigma, beta) - value) / EARLY_STEP;
-  sensitivities[2] = (earlyTime(ts, sigma * up, beta) - value) / (EARLY_STEP * sigma);
-  sensitivities[3] = (earlyTime(ts, sigma, beta * up) - value) / (EARLY_STEP * beta);
+  const sigmaUp = sigma * up;
+  const betaUp = beta * up;
+  if (ts >= NEUMAN_THEIS_BELOW && sigmaUp * beta === sigma * betaUp) {
+    earlyTimeTwin(ts, sigma, sigmaUp, beta, betaUp, TWIN);
+    sensitivities[2] = (TWIN.first - value) / (EARLY_STEP * sigma);
+    sensitivities[3] = (TWIN.second - value) / (EARLY_STEP * beta);
+    return;
+  }
+  sensitivities[2] = (earlyTime(ts, sigmaUp, beta) - value) / (EARLY_STEP * sigma);
+  sensitivities[3] = (earlyTime(ts, sigma, betaUp) - value) / (EARLY_STEP * beta);
+}
+
+const TWIN = { first: 0, second: 0 };
+const TWIN_FIRST = { re: 0, im: 0 };
+const TWIN_SECOND = { re: 0, im: 0 };
+
+/**
+ * earlyTime(ts, sigmaUp, beta) into out.first and earlyTime(ts, sigma, betaUp) into out.second for a pair whose
+ * products sigmaUp beta and sigma betaUp round alike (so c = p / (sigma beta) is the same at every de Hoog node):
+ * one pass over the roots for both (neumanTransformComplexTwin), each value with the bits of its own
+ * earlyTime. The second inversion reads the transform values kept by the first, at the same nodes in the same order.
+ */
+function earlyTimeTwin(
+  ts: number,
+  sigma: number,
+  sigmaUp: number,
+  beta: number,
+  betaUp: number,
+  out: { first: number; second: number },
+): void {
+  const scale = 1 / (sigmaUp * beta);
+  const seconds: Complex[] = [];
+  out.first = deHoog(
+    (p) => {
+      const mask = neumanTransformComplexTwin(p.re, p.im, scale, beta, betaUp, TWIN_FIRST, TWIN_SECOND);
+      seconds.push(mask & 2 ? complex(TWIN_SECOND.re, TWIN_SECOND.im) : earlyTransform(p, sigma, betaUp));
+      return mask & 1 ? complex(TWIN_FIRST.re, TWIN_FIRST.im) : earlyTransform(p, sigmaUp, beta);
+    },
+    ts,
+    EARLY_INVERSION,
+  );
+  let k = 0;
+  out.second = deHoog(() => seconds[k++]!, ts, EARLY_INVERSION);
 }
 
 /**
