@@ -2,6 +2,13 @@ import { describe, it, expect } from "vitest";
 import { neumanTransformComplex } from "../src/models/early-time-laplace.js";
 import { neumanTransformComplexFast } from "../src/models/neuman-early-laplace.js";
 import { complexK0, complexK0Pair, hypot, modulusBelow } from "../src/models/neuman-complex-k0.js";
+import {
+  NeumanTermLog,
+  neumanTransform,
+  neumanTransformValue,
+  neumanTransformValueLogged,
+  newNeumanTransform,
+} from "../src/models/neuman-laplace.js";
 import { NEUMAN_DEHOOG_BELOW, NEUMAN_THEIS_BELOW, neumanDimensionless, neumanModel } from "../src/models/neuman.js";
 import { besselK0Complex, complex, deHoog } from "../src/numerics/index.js";
 import { uniformGenerator } from "../../../tests/support/seeded-noise.js";
@@ -66,6 +73,30 @@ describe("the early-time sensitivities", () => {
     }
     expect(shared).toBeGreaterThan(0);
     expect(apart).toBeGreaterThan(0);
+  });
+});
+
+describe("the Neuman series with logged terms", () => {
+  it("logs while giving neumanTransformValue's bits, and the transform with derivatives reading the log gives its own bits", () => {
+    const log = new NeumanTermLog();
+    // Past its first capacity (4096 numbers) the log grows and keeps what it holds.
+    for (let i = 0; i < 2100; i++) log.push(i, -i);
+    expect([log.length, log.data[0], log.data[4199], log.data[4198]]).toEqual([4200, 0, -2099, 2099]);
+    const fresh = newNeumanTransform();
+    const reading = newNeumanTransform();
+    for (const p of [1e-3, 0.05, 2, 80, 3e3]) {
+      for (const [sigma, beta] of [[0.0167, 0.019], [0.3, 2], [1e-4, 1e-3]] as const) {
+        const start = log.length;
+        expect(neumanTransformValueLogged(p, sigma, beta, 1e-10, log)).toBe(neumanTransformValue(p, sigma, beta, 1e-10));
+        const known = { log, start, count: (log.length - start) / 2 };
+        expect(known.count).toBeGreaterThan(1);
+        for (const derivatives of [true, false]) {
+          neumanTransform(p, sigma, beta, 1e-10, derivatives, fresh);
+          neumanTransform(p, sigma, beta, 1e-10, derivatives, reading, known);
+          expect(reading, `p ${p}, sigma ${sigma}, beta ${beta}`).toEqual(fresh);
+        }
+      }
+    }
   });
 });
 

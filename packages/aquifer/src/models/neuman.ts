@@ -18,7 +18,14 @@
  */
 import { checkGeometry, checkParameters, checkScalar, outputArray } from "./checks.js";
 import type { DrawdownModel, ObservationGeometry, ParameterDescriptor } from "./model.js";
-import { neumanTransform, neumanTransformValue, newNeumanTransform } from "./neuman-laplace.js";
+import {
+  NeumanTermLog,
+  neumanTransform,
+  neumanTransformValue,
+  neumanTransformValueLogged,
+  newNeumanTransform,
+  type NeumanKnownTerms,
+} from "./neuman-laplace.js";
 import { stehfestWithDerivatives, type TransformWithDerivatives } from "./neuman-stehfest.js";
 import { transmissivityParameter } from "./parameters.js";
 import { deHoog, stehfestCoefficients } from "../numerics/index.js";
@@ -115,20 +122,28 @@ function earlyTimeTwin(
 }
 
 /**
- * Early-time s_D of a model's latest drawdown calls at one parameter vector, by (t_s, sigma, beta) with exact
- * decimal keys. A Jacobian asked at that vector (as the fitting engine asks, after the residuals) takes s_D from
- * here instead of a second de Hoog inversion (about 0.5 ms a point); drawdown calls only write, and a new
- * parameter vector empties it, so repeated calls do the same work. The values are a pure function's: results
- * are unchanged.
+ * What a model's latest drawdown calls at one parameter vector computed, for a Jacobian asked at that vector (as
+ * the fitting engine asks, after the residuals), by (t_s, sigma, beta) with exact decimal keys:
+ * - early time: s_D, so the Jacobian needs no second de Hoog inversion (about 0.5 ms a point);
+ * - Stehfest: the roots and K0 values of every term of the 12 transforms (NeumanTermLog), which the Jacobian's
+ *   transforms with derivatives read instead of solving and evaluating again.
+ * Drawdown calls only write, and a new parameter vector empties it, so repeated calls do the same work. The kept
+ * numbers are those the Jacobian would compute: results are unchanged.
  */
-class EarlyValues {
+class KeptEvaluations {
   private readonly values = new Map<string, number>();
   private parameters: number[] = [];
+  private readonly log = new NeumanTermLog();
+  /** Entry of each Stehfest point: its index into `nodes`, where (start, count) of its 12 transforms follow. */
+  private readonly entries = new Map<string, number>();
+  private nodes = new Int32Array(24 * 256);
+  private used = 0;
 
   /** Forgets everything unless p is the vector of the kept values. */
   at(p: ArrayLike<number>): void {
     if (!this.holds(p)) {
       this.values.clear();
+      this.clearTerms();
       this.parameters = Array.from(p);
     }
   }
@@ -147,7 +162,53 @@ class EarlyValues {
   get(ts: number, sigma: number, beta: number): number | undefined {
     return this.values.get(`${ts} ${sigma} ${beta}`);
   }
+
+  /** s_D by Stehfest as neumanDimensionless gives it (the same sum), logging the terms of its transforms. */
+  stehfestValue(ts: number, sigma: number, beta: number): number {
+    if (this.log.length > KEPT_TERMS_LIMIT) this.clearTerms();
+    const terms = NEUMAN_STEHFEST_TERMS;
+    if (this.used + 2 * terms > this.nodes.length) {
+      const grown = new Int32Array(this.nodes.length * 2);
+      grown.set(this.nodes);
+      this.nodes = grown;
+    }
+    const entry = this.used;
+    this.used += 2 * terms;
+    this.entries.set(`${ts} ${sigma} ${beta}`, entry);
+    const weights = STEHFEST_WEIGHTS;
+    const a = Math.LN2 / ts;
+    let sum = 0;
+    for (let k = 1; k <= weights.length; k++) {
+      const start = this.log.length;
+      const value = neumanTransformValueLogged(k * a, sigma, beta, NEUMAN_SERIES_TOLERANCE, this.log);
+      this.nodes[entry + 2 * (k - 1)] = start;
+      this.nodes[entry + 2 * (k - 1) + 1] = (this.log.length - start) / 2;
+      sum += weights[k - 1]! * value;
+    }
+    return a * sum;
+  }
+
+  /** The entry of a logged Stehfest point, or -1. */
+  stehfestEntry(ts: number, sigma: number, beta: number): number {
+    return this.entries.get(`${ts} ${sigma} ${beta}`) ?? -1;
+  }
+
+  /** Points `known` at the logged terms of transform `node` (0-based) of an entry. */
+  terms(entry: number, node: number, known: NeumanKnownTerms): void {
+    known.log = this.log;
+    known.start = this.nodes[entry + 2 * node]!;
+    known.count = this.nodes[entry + 2 * node + 1]!;
+  }
+
+  private clearTerms(): void {
+    this.log.clear();
+    this.entries.clear();
+    this.used = 0;
+  }
 }
+
+/** Logged numbers (two a term) kept at most before the log starts again: 8 MB. */
+const KEPT_TERMS_LIMIT = 1 << 20;
 
 /** Relative truncation tolerance of the root series at each Laplace variable. */
 export const NEUMAN_SERIES_TOLERANCE = 1e-10;
@@ -216,8 +277,32 @@ export function neumanDimensionless(ts: number, sigma: number, beta: number, sen
     }
     return a * sum;
   }
+  stehfestSensitivities(ts, sigma, beta, null, -1, sensitivities);
+  return sensitivities[0]!;
+}
+
+const KNOWN: NeumanKnownTerms = { log: new NeumanTermLog(), start: 0, count: 0 };
+
+/**
+ * The Stehfest branch of neumanDimensionless with sensitivities; with `kept` and an entry >= 0 the transforms read
+ * the roots and K0 values logged by the drawdown call (the same numbers).
+ */
+function stehfestSensitivities(
+  ts: number,
+  sigma: number,
+  beta: number,
+  kept: KeptEvaluations | null,
+  entry: number,
+  sensitivities: Float64Array,
+): void {
+  let node = 0;
   const transform: TransformWithDerivatives = (p, derivatives, values) => {
-    neumanTransform(p, sigma, beta, NEUMAN_SERIES_TOLERANCE, derivatives, SCRATCH);
+    if (kept !== null && entry >= 0) {
+      kept.terms(entry, node++, KNOWN);
+      neumanTransform(p, sigma, beta, NEUMAN_SERIES_TOLERANCE, derivatives, SCRATCH, KNOWN);
+    } else {
+      neumanTransform(p, sigma, beta, NEUMAN_SERIES_TOLERANCE, derivatives, SCRATCH);
+    }
     values[0] = SCRATCH.value;
     if (derivatives) {
       values[1] = SCRATCH.dp;
@@ -226,7 +311,6 @@ export function neumanDimensionless(ts: number, sigma: number, beta: number, sen
     }
   };
   stehfestWithDerivatives(transform, ts, NEUMAN_STEHFEST_TERMS, true, SENSITIVITY_SCRATCH, sensitivities);
-  return sensitivities[0]!;
 }
 
 /**
@@ -235,7 +319,7 @@ export function neumanDimensionless(ts: number, sigma: number, beta: number, sen
  */
 export function neumanModel(b: number): NeumanModel {
   checkScalar("neumanModel", "saturated thickness b", b, "m", true);
-  const early = new EarlyValues();
+  const early = new KeptEvaluations();
   const model: NeumanModel = {
     id: "neuman",
     name: "Neuman (1974) unconfined aquifer with delayed gravity response",
@@ -291,8 +375,11 @@ export function neumanModel(b: number): NeumanModel {
           continue;
         }
         const ts = ti * tsPerDay;
-        const sD = neumanDimensionless(ts, sigma, beta);
-        if (ts < NEUMAN_DEHOOG_BELOW) early.set(ts, sigma, beta, sD);
+        let sD: number;
+        if (ts < NEUMAN_DEHOOG_BELOW) {
+          sD = neumanDimensionless(ts, sigma, beta);
+          early.set(ts, sigma, beta, sD);
+        } else sD = early.stehfestValue(ts, sigma, beta);
         result[i] = coef * sD;
       }
       return result;
@@ -316,9 +403,13 @@ export function neumanModel(b: number): NeumanModel {
           continue;
         }
         const ts = ti * tsPerDay;
-        const known = reuse && ts < NEUMAN_DEHOOG_BELOW ? early.get(ts, sigma, beta) : undefined;
-        if (known === undefined) neumanDimensionless(ts, sigma, beta, d);
-        else earlySensitivities(ts, sigma, beta, known, d);
+        if (ts < NEUMAN_DEHOOG_BELOW) {
+          const known = reuse ? early.get(ts, sigma, beta) : undefined;
+          if (known === undefined) neumanDimensionless(ts, sigma, beta, d);
+          else earlySensitivities(ts, sigma, beta, known, d);
+        } else {
+          stehfestSensitivities(ts, sigma, beta, early, reuse ? early.stehfestEntry(ts, sigma, beta) : -1, d);
+        }
         // d[1] = t_s ds_D/dt_s, d[2] = ds_D/dsigma, d[3] = ds_D/dbeta; chain rule in ln parameters.
         const s = coef * d[0]!;
         columns[0]![i] = (-s + coef * d[1]!) / T;
