@@ -117,6 +117,19 @@ describe("the Neuman Jacobian after a drawdown call at the same parameters", () 
     expect(warmed.jacobian!(parameters, geometry, t).map((c) => Array.from(c))).toEqual(alone.map((c) => Array.from(c)));
     expect(drawdown[0]).toBeGreaterThan(0);
   });
+
+  it("does not mix up two wells whose times give the same t_s (r = 10 m at t, r = 20 m at 4 t: other beta)", () => {
+    const parameters = [150, 2e-3, 0.12, 0.3];
+    const t = Float64Array.from({ length: 6 }, (_, i) => 0.01 * 3 ** i);
+    const t4 = t.map((v) => 4 * v);
+    const warmed = neumanModel(20);
+    warmed.drawdown(parameters, { r: 10, Q: 800 }, t);
+    warmed.drawdown(parameters, { r: 20, Q: 800 }, t4);
+    const near = warmed.jacobian!(parameters, { r: 10, Q: 800 }, t).map((c) => Array.from(c));
+    const far = warmed.jacobian!(parameters, { r: 20, Q: 800 }, t4).map((c) => Array.from(c));
+    expect(near).toEqual(neumanModel(20).jacobian!(parameters, { r: 10, Q: 800 }, t).map((c) => Array.from(c)));
+    expect(far).toEqual(neumanModel(20).jacobian!(parameters, { r: 20, Q: 800 }, t4).map((c) => Array.from(c)));
+  });
 });
 
 describe("the plain-arithmetic helpers of the complex K0", () => {

@@ -134,9 +134,13 @@ class KeptEvaluations {
   private readonly values = new Map<string, number>();
   private parameters: number[] = [];
   private readonly log = new NeumanTermLog();
-  /** Entry of each Stehfest point: its index into `nodes`, where (start, count) of its 12 transforms follow. */
-  private readonly entries = new Map<string, number>();
+  /**
+   * Entry of each Stehfest point by t_s: its index into `nodes`, where (start, count) of its 12 transforms follow;
+   * its sigma and beta in `keys` (two numbers an entry), checked on reading.
+   */
+  private readonly entries = new Map<number, number>();
   private nodes = new Int32Array(24 * 256);
+  private keys = new Float64Array(2 * 256);
   private used = 0;
 
   /** Forgets everything unless p is the vector of the kept values. */
@@ -171,10 +175,15 @@ class KeptEvaluations {
       const grown = new Int32Array(this.nodes.length * 2);
       grown.set(this.nodes);
       this.nodes = grown;
+      const keys = new Float64Array(this.keys.length * 2);
+      keys.set(this.keys);
+      this.keys = keys;
     }
     const entry = this.used;
     this.used += 2 * terms;
-    this.entries.set(`${ts} ${sigma} ${beta}`, entry);
+    this.entries.set(ts, entry);
+    this.keys[entry / terms] = sigma;
+    this.keys[entry / terms + 1] = beta;
     const weights = STEHFEST_WEIGHTS;
     const a = Math.LN2 / ts;
     let sum = 0;
@@ -190,7 +199,10 @@ class KeptEvaluations {
 
   /** The entry of a logged Stehfest point, or -1. */
   stehfestEntry(ts: number, sigma: number, beta: number): number {
-    return this.entries.get(`${ts} ${sigma} ${beta}`) ?? -1;
+    const entry = this.entries.get(ts);
+    if (entry === undefined) return -1;
+    const at = entry / NEUMAN_STEHFEST_TERMS;
+    return Object.is(this.keys[at], sigma) && Object.is(this.keys[at + 1], beta) ? entry : -1;
   }
 
   /** Points `known` at the logged terms of transform `node` (0-based) of an entry. */
