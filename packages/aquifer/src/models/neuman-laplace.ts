@@ -115,7 +115,9 @@ export function neumanNextRoot(n: number, c: number, previous: number): number {
  * are positive and sum to 1, this bounds the neglected tail, so the relative truncation error is below
  * `tolerance`. The same bound with K1 in place of K0 truncates the derivative sums. Dimensionless.
  * Returns false when NEUMAN_MAX_TERMS terms do not reach the tolerance. Roots by neumanNextRoot; K0 and K1
- * from their scaled forms times one shared e^-x for x > 2.
+ * from their scaled forms times one shared e^-x for x > 2. With `known` (the terms {@link neumanTransformValueLogged}
+ * logged for the same p, sigma and beta) the first known.count roots and K0 values are read instead of computed:
+ * the same numbers, so the same bits.
  */
 export function neumanTransform(
   p: number,
@@ -124,7 +126,11 @@ export function neumanTransform(
   tolerance: number,
   derivatives: boolean,
   out: NeumanTransform,
+  known?: NeumanKnownTerms,
 ): boolean {
+  const knownCount = known === undefined ? 0 : known.count;
+  const knownData = known === undefined ? EMPTY : known.log.data;
+  const knownStart = known === undefined ? 0 : known.start;
   const c = p / (sigma * beta);
   let sum = 0;
   let weightSum = 0;
@@ -132,11 +138,12 @@ export function neumanTransform(
   let sumDc = 0;
   let sumDx2p = 0;
   let sumDx2beta = 0;
-  let e = neumanRoot(0, c, firstRootGuess(c));
+  let e = knownCount > 0 ? knownData[knownStart]! : neumanRoot(0, c, firstRootGuess(c));
   let converged = false;
   let n = 0;
   for (; n < NEUMAN_MAX_TERMS; n++) {
-    if (n > 0) e = neumanNextRoot(n, c, e);
+    const isKnown = n < knownCount;
+    if (n > 0) e = isKnown ? knownData[knownStart + 2 * n]! : neumanNextRoot(n, c, e);
     const e2 = e * e;
     const denominator = e2 + c * c + c;
     const w = (2 * c * c) / (e2 * denominator);
@@ -145,10 +152,10 @@ export function neumanTransform(
     let k1 = 0;
     if (x > 2) {
       const decay = Math.exp(-x);
-      k0 = besselK0e(x) * decay;
+      k0 = isKnown ? knownData[knownStart + 2 * n + 1]! : besselK0e(x) * decay;
       if (derivatives) k1 = besselK1e(x) * decay;
     } else {
-      k0 = besselK0(x);
+      k0 = isKnown ? knownData[knownStart + 2 * n + 1]! : besselK0(x);
       if (derivatives) k1 = besselK1(x);
     }
     sum += w * k0;
@@ -211,3 +218,62 @@ export function neumanTransformValue(p: number, sigma: number, beta: number, tol
   return Number.NaN;
 }
 
+
+const EMPTY = new Float64Array(0);
+
+/** Roots eps_n and K0(x_n) of evaluated terms, appended in pairs (e, K0) in the order they are summed. */
+export class NeumanTermLog {
+  /** [e_0, K0_0, e_1, K0_1, ...] of every logged evaluation, back to back. */
+  data = new Float64Array(4096);
+  /** Numbers used in `data`. */
+  length = 0;
+
+  /** Appends one term. */
+  push(e: number, k0: number): void {
+    if (this.length + 2 > this.data.length) {
+      const grown = new Float64Array(this.data.length * 2);
+      grown.set(this.data);
+      this.data = grown;
+    }
+    this.data[this.length++] = e;
+    this.data[this.length++] = k0;
+  }
+
+  /** Forgets every logged term. */
+  clear(): void {
+    this.length = 0;
+  }
+}
+
+/** The terms of one logged evaluation: `count` pairs from `start` in `log.data`. */
+export interface NeumanKnownTerms {
+  log: NeumanTermLog;
+  start: number;
+  count: number;
+}
+
+/**
+ * {@link neumanTransformValue} that also appends each summed term's root and K0 value to `log` (the same loop and
+ * operations, so the same F(p)), for a later {@link neumanTransform} with derivatives at the same p, sigma, beta.
+ * Dimensionless; NaN when NEUMAN_MAX_TERMS terms do not reach the tolerance.
+ */
+export function neumanTransformValueLogged(p: number, sigma: number, beta: number, tolerance: number, log: NeumanTermLog): number {
+  const c = p / (sigma * beta);
+  const cc = c * c;
+  const twoC2 = 2 * c * c;
+  let sum = 0;
+  let weightSum = 0;
+  let e = neumanRoot(0, c, firstRootGuess(c));
+  for (let n = 0; n < NEUMAN_MAX_TERMS; n++) {
+    if (n > 0) e = neumanNextRoot(n, c, e);
+    const e2 = e * e;
+    const w = twoC2 / (e2 * (e2 + cc + c));
+    const x = Math.sqrt(p + beta * e2);
+    const k0 = x > 2 ? besselK0e(x) * Math.exp(-x) : besselK0(x);
+    log.push(e, k0);
+    sum += w * k0;
+    weightSum += w;
+    if (n >= 1 && k0 * (1 - weightSum) <= tolerance * sum) return (2 / p) * sum;
+  }
+  return Number.NaN;
+}

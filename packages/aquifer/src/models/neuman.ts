@@ -9,7 +9,8 @@
  * Sources: Neuman, S.P. (1974), Water Resources Research 10(2), 303-312; the Laplace form as in Moench, A.F.
  * (1997), Water Resources Research 33(6), 1397-1407, for fully penetrating wells and instantaneous drainage.
  * The series and its truncation are in neuman-laplace.ts; the inversion is Stehfest's (neuman-stehfest.ts) from
- * t_s = 0.15 on and de Hoog's at complex p below (early-time-laplace.ts), where Stehfest's error grows above 1e-3.
+ * t_s = 0.15 on and de Hoog's at complex p below (neuman-early-laplace.ts: the series of early-time-laplace.ts in
+ * plain arithmetic, the same bits), where Stehfest's error grows above 1e-3.
  *
  * Geometry: beta depends on the saturated thickness b, which is not part of ObservationGeometry and does not
  * pass through the fitting engine's geometry records; so b is bound when the model is made:
@@ -17,12 +18,21 @@
  */
 import { checkGeometry, checkParameters, checkScalar, outputArray } from "./checks.js";
 import type { DrawdownModel, ObservationGeometry, ParameterDescriptor } from "./model.js";
-import { neumanTransform, neumanTransformValue, newNeumanTransform } from "./neuman-laplace.js";
+import {
+  NeumanTermLog,
+  neumanTransform,
+  neumanTransformValue,
+  neumanTransformValueLogged,
+  newNeumanTransform,
+  type NeumanKnownTerms,
+} from "./neuman-laplace.js";
 import { stehfestWithDerivatives, type TransformWithDerivatives } from "./neuman-stehfest.js";
 import { transmissivityParameter } from "./parameters.js";
 import { deHoog, stehfestCoefficients } from "../numerics/index.js";
 import { expint1 } from "../special/index.js";
 import { neumanTransformComplex } from "./early-time-laplace.js";
+import { neumanTransformComplexFast, neumanTransformComplexTwin } from "./neuman-early-laplace.js";
+import { complex, type Complex } from "../numerics/index.js";
 
 const FOUR_PI = 4 * Math.PI;
 
@@ -48,10 +58,169 @@ const EARLY_INVERSION = { order: 12, tolerance: 1e-9 } as const;
  */
 export const NEUMAN_THEIS_BELOW = 0.01;
 
+const EARLY_SCRATCH = { re: 0, im: 0 };
+
+/** F(p) at complex p: the plain-arithmetic evaluation, or the record-based one where a root needs its path from real c. */
+function earlyTransform(p: Complex, sigma: number, beta: number): Complex {
+  if (neumanTransformComplexFast(p.re, p.im, sigma, beta, EARLY_SCRATCH)) return complex(EARLY_SCRATCH.re, EARLY_SCRATCH.im);
+  return neumanTransformComplex(p, sigma, beta);
+}
+
 function earlyTime(ts: number, sigma: number, beta: number): number {
   if (ts < NEUMAN_THEIS_BELOW) return expint1(1 / (4 * ts));
-  return deHoog((p) => neumanTransformComplex(p, sigma, beta), ts, EARLY_INVERSION);
+  return deHoog((p) => earlyTransform(p, sigma, beta), ts, EARLY_INVERSION);
 }
+
+/** Writes [value, t_s ds_D/dt_s, ds_D/dsigma, ds_D/dbeta] at early time from s_D = value (forward differences). */
+function earlySensitivities(ts: number, sigma: number, beta: number, value: number, sensitivities: Float64Array): void {
+  const up = Math.exp(EARLY_STEP);
+  sensitivities[0] = value;
+  sensitivities[1] = (earlyTime(ts * up, sigma, beta) - value) / EARLY_STEP;
+  const sigmaUp = sigma * up;
+  const betaUp = beta * up;
+  if (ts >= NEUMAN_THEIS_BELOW && sigmaUp * beta === sigma * betaUp) {
+    earlyTimeTwin(ts, sigma, sigmaUp, beta, betaUp, TWIN);
+    sensitivities[2] = (TWIN.first - value) / (EARLY_STEP * sigma);
+    sensitivities[3] = (TWIN.second - value) / (EARLY_STEP * beta);
+    return;
+  }
+  sensitivities[2] = (earlyTime(ts, sigmaUp, beta) - value) / (EARLY_STEP * sigma);
+  sensitivities[3] = (earlyTime(ts, sigma, betaUp) - value) / (EARLY_STEP * beta);
+}
+
+const TWIN = { first: 0, second: 0 };
+const TWIN_FIRST = { re: 0, im: 0 };
+const TWIN_SECOND = { re: 0, im: 0 };
+
+/**
+ * earlyTime(ts, sigmaUp, beta) into out.first and earlyTime(ts, sigma, betaUp) into out.second for a pair whose
+ * products sigmaUp beta and sigma betaUp round alike (so c = p / (sigma beta) is the same at every de Hoog node):
+ * one pass over the roots for both (neumanTransformComplexTwin), each value with the bits of its own
+ * earlyTime. The second inversion reads the transform values kept by the first, at the same nodes in the same order.
+ */
+function earlyTimeTwin(
+  ts: number,
+  sigma: number,
+  sigmaUp: number,
+  beta: number,
+  betaUp: number,
+  out: { first: number; second: number },
+): void {
+  const scale = 1 / (sigmaUp * beta);
+  const seconds: Complex[] = [];
+  out.first = deHoog(
+    (p) => {
+      const mask = neumanTransformComplexTwin(p.re, p.im, scale, beta, betaUp, TWIN_FIRST, TWIN_SECOND);
+      seconds.push(mask & 2 ? complex(TWIN_SECOND.re, TWIN_SECOND.im) : earlyTransform(p, sigma, betaUp));
+      return mask & 1 ? complex(TWIN_FIRST.re, TWIN_FIRST.im) : earlyTransform(p, sigmaUp, beta);
+    },
+    ts,
+    EARLY_INVERSION,
+  );
+  let k = 0;
+  out.second = deHoog(() => seconds[k++]!, ts, EARLY_INVERSION);
+}
+
+/**
+ * What a model's latest drawdown calls at one parameter vector computed, for a Jacobian asked at that vector (as
+ * the fitting engine asks, after the residuals), by (t_s, sigma, beta) with exact decimal keys:
+ * - early time: s_D, so the Jacobian needs no second de Hoog inversion (about 0.5 ms a point);
+ * - Stehfest: the roots and K0 values of every term of the 12 transforms (NeumanTermLog), which the Jacobian's
+ *   transforms with derivatives read instead of solving and evaluating again.
+ * Drawdown calls only write, and a new parameter vector empties it, so repeated calls do the same work. The kept
+ * numbers are those the Jacobian would compute: results are unchanged.
+ */
+class KeptEvaluations {
+  private readonly values = new Map<string, number>();
+  private parameters: number[] = [];
+  private readonly log = new NeumanTermLog();
+  /**
+   * Entry of each Stehfest point by t_s: its index into `nodes`, where (start, count) of its 12 transforms follow;
+   * its sigma and beta in `keys` (two numbers an entry), checked on reading.
+   */
+  private readonly entries = new Map<number, number>();
+  private nodes = new Int32Array(24 * 256);
+  private keys = new Float64Array(2 * 256);
+  private used = 0;
+
+  /** Forgets everything unless p is the vector of the kept values. */
+  at(p: ArrayLike<number>): void {
+    if (!this.holds(p)) {
+      this.values.clear();
+      this.clearTerms();
+      this.parameters = Array.from(p);
+    }
+  }
+
+  holds(p: ArrayLike<number>): boolean {
+    if (p.length !== this.parameters.length) return false;
+    for (let i = 0; i < p.length; i++) if (!Object.is(p[i], this.parameters[i])) return false;
+    return true;
+  }
+
+  set(ts: number, sigma: number, beta: number, value: number): void {
+    if (this.values.size >= 4096) this.values.clear();
+    this.values.set(`${ts} ${sigma} ${beta}`, value);
+  }
+
+  get(ts: number, sigma: number, beta: number): number | undefined {
+    return this.values.get(`${ts} ${sigma} ${beta}`);
+  }
+
+  /** s_D by Stehfest as neumanDimensionless gives it (the same sum), logging the terms of its transforms. */
+  stehfestValue(ts: number, sigma: number, beta: number): number {
+    if (this.log.length > KEPT_TERMS_LIMIT) this.clearTerms();
+    const terms = NEUMAN_STEHFEST_TERMS;
+    if (this.used + 2 * terms > this.nodes.length) {
+      const grown = new Int32Array(this.nodes.length * 2);
+      grown.set(this.nodes);
+      this.nodes = grown;
+      const keys = new Float64Array(this.keys.length * 2);
+      keys.set(this.keys);
+      this.keys = keys;
+    }
+    const entry = this.used;
+    this.used += 2 * terms;
+    this.entries.set(ts, entry);
+    this.keys[entry / terms] = sigma;
+    this.keys[entry / terms + 1] = beta;
+    const weights = STEHFEST_WEIGHTS;
+    const a = Math.LN2 / ts;
+    let sum = 0;
+    for (let k = 1; k <= weights.length; k++) {
+      const start = this.log.length;
+      const value = neumanTransformValueLogged(k * a, sigma, beta, NEUMAN_SERIES_TOLERANCE, this.log);
+      this.nodes[entry + 2 * (k - 1)] = start;
+      this.nodes[entry + 2 * (k - 1) + 1] = (this.log.length - start) / 2;
+      sum += weights[k - 1]! * value;
+    }
+    return a * sum;
+  }
+
+  /** The entry of a logged Stehfest point, or -1. */
+  stehfestEntry(ts: number, sigma: number, beta: number): number {
+    const entry = this.entries.get(ts);
+    if (entry === undefined) return -1;
+    const at = entry / NEUMAN_STEHFEST_TERMS;
+    return Object.is(this.keys[at], sigma) && Object.is(this.keys[at + 1], beta) ? entry : -1;
+  }
+
+  /** Points `known` at the logged terms of transform `node` (0-based) of an entry. */
+  terms(entry: number, node: number, known: NeumanKnownTerms): void {
+    known.log = this.log;
+    known.start = this.nodes[entry + 2 * node]!;
+    known.count = this.nodes[entry + 2 * node + 1]!;
+  }
+
+  private clearTerms(): void {
+    this.log.clear();
+    this.entries.clear();
+    this.used = 0;
+  }
+}
+
+/** Logged numbers (two a term) kept at most before the log starts again: 8 MB. */
+const KEPT_TERMS_LIMIT = 1 << 20;
 
 /** Relative truncation tolerance of the root series at each Laplace variable. */
 export const NEUMAN_SERIES_TOLERANCE = 1e-10;
@@ -108,13 +277,7 @@ export interface NeumanModel extends DrawdownModel {
 export function neumanDimensionless(ts: number, sigma: number, beta: number, sensitivities?: Float64Array): number {
   if (ts < NEUMAN_DEHOOG_BELOW) {
     const value = earlyTime(ts, sigma, beta);
-    if (sensitivities) {
-      const up = Math.exp(EARLY_STEP);
-      sensitivities[0] = value;
-      sensitivities[1] = (earlyTime(ts * up, sigma, beta) - value) / EARLY_STEP;
-      sensitivities[2] = (earlyTime(ts, sigma * up, beta) - value) / (EARLY_STEP * sigma);
-      sensitivities[3] = (earlyTime(ts, sigma, beta * up) - value) / (EARLY_STEP * beta);
-    }
+    if (sensitivities) earlySensitivities(ts, sigma, beta, value, sensitivities);
     return value;
   }
   const weights = STEHFEST_WEIGHTS;
@@ -126,8 +289,32 @@ export function neumanDimensionless(ts: number, sigma: number, beta: number, sen
     }
     return a * sum;
   }
+  stehfestSensitivities(ts, sigma, beta, null, -1, sensitivities);
+  return sensitivities[0]!;
+}
+
+const KNOWN: NeumanKnownTerms = { log: new NeumanTermLog(), start: 0, count: 0 };
+
+/**
+ * The Stehfest branch of neumanDimensionless with sensitivities; with `kept` and an entry >= 0 the transforms read
+ * the roots and K0 values logged by the drawdown call (the same numbers).
+ */
+function stehfestSensitivities(
+  ts: number,
+  sigma: number,
+  beta: number,
+  kept: KeptEvaluations | null,
+  entry: number,
+  sensitivities: Float64Array,
+): void {
+  let node = 0;
   const transform: TransformWithDerivatives = (p, derivatives, values) => {
-    neumanTransform(p, sigma, beta, NEUMAN_SERIES_TOLERANCE, derivatives, SCRATCH);
+    if (kept !== null && entry >= 0) {
+      kept.terms(entry, node++, KNOWN);
+      neumanTransform(p, sigma, beta, NEUMAN_SERIES_TOLERANCE, derivatives, SCRATCH, KNOWN);
+    } else {
+      neumanTransform(p, sigma, beta, NEUMAN_SERIES_TOLERANCE, derivatives, SCRATCH);
+    }
     values[0] = SCRATCH.value;
     if (derivatives) {
       values[1] = SCRATCH.dp;
@@ -136,7 +323,6 @@ export function neumanDimensionless(ts: number, sigma: number, beta: number, sen
     }
   };
   stehfestWithDerivatives(transform, ts, NEUMAN_STEHFEST_TERMS, true, SENSITIVITY_SCRATCH, sensitivities);
-  return sensitivities[0]!;
 }
 
 /**
@@ -145,6 +331,7 @@ export function neumanDimensionless(ts: number, sigma: number, beta: number, sen
  */
 export function neumanModel(b: number): NeumanModel {
   checkScalar("neumanModel", "saturated thickness b", b, "m", true);
+  const early = new KeptEvaluations();
   const model: NeumanModel = {
     id: "neuman",
     name: "Neuman (1974) unconfined aquifer with delayed gravity response",
@@ -192,9 +379,20 @@ export function neumanModel(b: number): NeumanModel {
       const tsPerDay = T / (S * geometry.r * geometry.r);
       const sigma = S / Sy;
       const beta = (kappa * geometry.r * geometry.r) / (b * b);
+      early.at(p);
       for (let i = 0; i < t.length; i++) {
         const ti = t[i]!;
-        result[i] = ti > 0 ? coef * neumanDimensionless(ti * tsPerDay, sigma, beta) : ti <= 0 ? 0 : Number.NaN;
+        if (!(ti > 0)) {
+          result[i] = ti <= 0 ? 0 : Number.NaN;
+          continue;
+        }
+        const ts = ti * tsPerDay;
+        let sD: number;
+        if (ts < NEUMAN_DEHOOG_BELOW) {
+          sD = neumanDimensionless(ts, sigma, beta);
+          early.set(ts, sigma, beta, sD);
+        } else sD = early.stehfestValue(ts, sigma, beta);
+        result[i] = coef * sD;
       }
       return result;
     },
@@ -209,13 +407,21 @@ export function neumanModel(b: number): NeumanModel {
       const beta = (kappa * geometry.r * geometry.r) / (b * b);
       const columns = [0, 1, 2, 3].map(() => new Float64Array(t.length));
       const d = new Float64Array(4);
+      const reuse = early.holds(p);
       for (let i = 0; i < t.length; i++) {
         const ti = t[i]!;
         if (!(ti > 0)) {
           if (!(ti <= 0)) for (const column of columns) column[i] = Number.NaN;
           continue;
         }
-        neumanDimensionless(ti * tsPerDay, sigma, beta, d);
+        const ts = ti * tsPerDay;
+        if (ts < NEUMAN_DEHOOG_BELOW) {
+          const known = reuse ? early.get(ts, sigma, beta) : undefined;
+          if (known === undefined) neumanDimensionless(ts, sigma, beta, d);
+          else earlySensitivities(ts, sigma, beta, known, d);
+        } else {
+          stehfestSensitivities(ts, sigma, beta, early, reuse ? early.stehfestEntry(ts, sigma, beta) : -1, d);
+        }
         // d[1] = t_s ds_D/dt_s, d[2] = ds_D/dsigma, d[3] = ds_D/dbeta; chain rule in ln parameters.
         const s = coef * d[0]!;
         columns[0]![i] = (-s + coef * d[1]!) / T;
