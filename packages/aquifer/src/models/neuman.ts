@@ -41,7 +41,8 @@ export const NEUMAN_STEHFEST_TERMS = 12;
 /**
  * Below this t_s the drawdown is inverted by de Hoog's method with complex roots (early-time-laplace.ts):
  * there Stehfest's error exceeds 1e-3 (1.7e-3 to 2.9e-3 at t_s = 0.1, 2.4e-2 at 0.05, against mpmath); from it on
- * Stehfest stays within 7e-4 (measured for sigma 1e-3 to 0.5, beta 0.01 to 5; within 2.2e-4 from t_s = 0.3).
+ * Stehfest stays within 7.5e-4 of Neuman's real-integral form at the points of tests/fixtures/neuman-integral (the
+ * largest at sigma = 1e-3, beta = 4, t_s = 0.3) and within 2.9e-4 from t_s = 1 (independent-checks-neuman.test.ts).
  */
 export const NEUMAN_DEHOOG_BELOW = 0.15;
 /** Step in ln of the argument for the forward differences of the early-time sensitivities (error about 1e-5 relative). */
@@ -269,8 +270,8 @@ export interface NeumanModel extends DrawdownModel {
 /**
  * Dimensionless Neuman drawdown s_D = 4 pi T s / Q at dimensionless time t_s = T t / (S r^2) (> 0) for
  * sigma = S/Sy > 0 and beta > 0. With `sensitivities` (length 4) also writes [s_D, t_s ds_D/dt_s,
- * ds_D/dsigma, ds_D/dbeta]. Inversion: Stehfest N = 12 from t_s = 0.15 on (within 7e-4 of mpmath), de Hoog with
- * complex roots from 0.01 to 0.15 (within 2e-7 of mpmath from t_s = 0.05 on; sensitivities there by forward
+ * ds_D/dsigma, ds_D/dbeta]. Inversion: Stehfest N = 12 from t_s = 0.15 on (within 7.5e-4 of the real-integral
+ * form), de Hoog with complex roots from 0.01 to 0.15 (within 2e-7 of mpmath from t_s = 0.05 on; sensitivities there by forward
  * differences in ln t_s, ln sigma, ln beta with step 1e-5), and Theis's W(1/(4 t_s)) below 0.01, where s_D < 6e-13.
  * Accuracy: see docs/methods.md. Source: Neuman (1974) as above.
  */
