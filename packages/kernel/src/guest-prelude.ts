@@ -276,11 +276,13 @@ export const GUEST_PRELUDE = String.raw`(function (host, config) {
     return [stringify(tables.length > 0 ? [plain, patches, tables] : [plain, patches]), buffers];
   }
 
+  // wire is the host's text alone (no buffers) or [text, buffer0, buffer1, ...].
   function decode(wire) {
-    const both = parse(wire[0]);
+    const text = typeof wire === "string";
+    const both = parse(text ? wire : wire[0]);
     const patches = both[1];
     if (patches.length === 0) return both[0];
-    const buffers = wire[1], tables = both[2];
+    const buffers = text ? [] : sliceArray(wire, 1), tables = both[2];
     let root = both[0];
     for (let i = 0; i < patches.length; i += 2) {
       const path = patches[i], code = patches[i + 1];

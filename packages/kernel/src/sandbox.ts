@@ -224,25 +224,26 @@ export class Sandbox {
     return { json, buffers };
   }
 
-  /** Builds the guest array [json, [buffer...]] that the prelude's `decode` reads. */
+  /**
+   * Builds the wire value the prelude's `decode` reads: the text alone when there are no buffers (most replies),
+   * else the array [text, buffer0, buffer1, ...].
+   */
   private newWire(value: unknown): QuickJSHandle {
     const ctx = this.context;
     // The bytes are copied into QuickJS memory at once, so the wire may share the host arrays' buffers.
     const wire = encodeHostValue(value, { shareBuffers: true });
     // Each buffer is copied twice on its way in (a heap buffer, then the ArrayBuffer), the text once as UTF-8.
     this.ensureRoom(3 * wire.json.length + 2 * wire.buffers.reduce((n, b) => n + b.byteLength, 0));
-    const out = ctx.newArray();
     const json = ctx.newString(wire.json);
+    if (wire.buffers.length === 0) return json;
+    const out = ctx.newArray();
     ctx.setProp(out, 0, json);
     json.dispose();
-    const list = ctx.newArray();
     wire.buffers.forEach((b, i) => {
       const h = ctx.newArrayBuffer(b);
-      ctx.setProp(list, i, h);
+      ctx.setProp(out, i + 1, h);
       h.dispose();
     });
-    ctx.setProp(out, 1, list);
-    list.dispose();
     return out;
   }
 
