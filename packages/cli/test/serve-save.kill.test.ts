@@ -4,7 +4,7 @@
  * document the page sent (PUT /TOKEN/api/document, as the page's save does). After each kill the file is exactly
  * the text it had or exactly the complete text that was sent, and the next save removes every temporary file the
  * killed servers left (cli docs, "atomic writes"). The page's own recovery copy of unsaved edits is checked in
- * tests/browser/workbench-editing.test.ts.
+ * tests/browser/workbench-editing.test.ts. The long version: `npm run soak` (1,000 kills).
  */
 import { spawn, type ChildProcess } from "node:child_process";
 import { createHash } from "node:crypto";
@@ -14,7 +14,15 @@ import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 
-const KILLS = 50;
+/** 50 in npm test; the soak (tests/soak/run.ts) sets CONEBOOK_SERVE_KILLS=1000 for the long version. */
+const KILLS = killsFrom(process.env.CONEBOOK_SERVE_KILLS);
+
+function killsFrom(raw: string | undefined): number {
+  if (raw === undefined) return 50;
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < 1) throw new Error(`CONEBOOK_SERVE_KILLS must be a whole number >= 1, got ${JSON.stringify(raw)}`);
+  return n;
+}
 const CLI = fileURLToPath(new URL("../dist/conebook.js", import.meta.url));
 const FILE = "hb.cone.md";
 
@@ -119,5 +127,5 @@ describe("the page's save under SIGKILL of conebook serve", () => {
     } finally {
       await rm(dir, { recursive: true, force: true });
     }
-  }, 240_000);
+  }, Math.max(240_000, KILLS * 2_000));
 });
