@@ -13,11 +13,12 @@
  */
 import { spawn, spawnSync } from "node:child_process";
 import { existsSync } from "node:fs";
-import { mkdtemp, readFile, readdir, rm, writeFile } from "node:fs/promises";
+import { mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { parseDocument } from "@conebook/document";
+import { seededFractions, temporaries } from "../support/kill-moments.js";
 
 const option = (name: string, fallback: number): number => {
   const given = process.argv.find((a) => a.startsWith(`--${name}=`));
@@ -53,16 +54,6 @@ fit.parameters.find((q) => q.name === "T").estimate
 `;
 
 /** The same seeded moments as the fast test: a linear congruential generator (Numerical Recipes constants). */
-function seededFractions(seed: number, count: number): number[] {
-  let s = seed >>> 0;
-  return Array.from({ length: count }, () => {
-    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-    return (s % 10_000) / 10_000;
-  });
-}
-
-const temporaries = async (dir: string): Promise<string[]> => (await readdir(dir)).filter((f) => f.includes(".tmp-"));
-
 function command(dir: string, args: string[]): { status: number | null; output: string } {
   const r = spawnSync(process.execPath, [CLI, ...args], { cwd: dir, encoding: "utf8", timeout: 120_000 });
   return { status: r.status, output: `${r.stdout}${r.stderr}`.trim() };

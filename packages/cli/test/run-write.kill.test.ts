@@ -6,11 +6,12 @@
  * writes").
  */
 import { spawn, spawnSync } from "node:child_process";
-import { mkdtemp, readFile, readdir, writeFile } from "node:fs/promises";
+import { mkdtemp, readFile, writeFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
+import { seededFractions, temporaries } from "../../../tests/support/kill-moments.js";
 
 const KILLS = 50;
 const CLI = fileURLToPath(new URL("../dist/conebook.js", import.meta.url));
@@ -33,16 +34,6 @@ const fit = aq.fitModel({ model: "theis", wells: [{ name: "WH-OB1", geometry: { 
 fit.parameters.find((q) => q.name === "T").estimate
 \`\`\`
 `;
-
-function seededFractions(seed: number, count: number): number[] {
-  let s = seed >>> 0;
-  return Array.from({ length: count }, () => {
-    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-    return (s % 10_000) / 10_000;
-  });
-}
-
-const temporaries = async (dir: string) => (await readdir(dir)).filter((f) => f.includes(".tmp-"));
 
 describe("conebook run --write under SIGKILL", () => {
   it(`leaves the old or the complete new document through ${KILLS} kills at random moments, and no temporary file after the next write`, async () => {

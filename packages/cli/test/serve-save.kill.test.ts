@@ -8,11 +8,12 @@
  */
 import { spawn, type ChildProcess } from "node:child_process";
 import { createHash } from "node:crypto";
-import { mkdtemp, readFile, readdir, rm, writeFile } from "node:fs/promises";
+import { mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
+import { seededFractions, temporaries } from "../../../tests/support/kill-moments.js";
 
 /** 50 in npm test; the soak (tests/soak/run.ts) sets CONEBOOK_SERVE_KILLS=1000 for the long version. */
 const KILLS = killsFrom(process.env.CONEBOOK_SERVE_KILLS);
@@ -32,16 +33,7 @@ function version(label: string): string {
   return `---\nconebook: 1\ntitle: Saving from the page at Heron Bank (${label}, invented)\nseed: 5\n---\n\n${narrative}\n\n\`\`\`ts code:check\n1 + 1\n\`\`\`\n`;
 }
 
-function seededFractions(seed: number, count: number): number[] {
-  let s = seed >>> 0;
-  return Array.from({ length: count }, () => {
-    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-    return (s % 10_000) / 10_000;
-  });
-}
-
 const sha256 = (text: string) => createHash("sha256").update(text, "utf8").digest("hex");
-const temporaries = async (dir: string) => (await readdir(dir)).filter((f) => f.includes(".tmp-"));
 
 /** Starts `conebook serve DIR --port 0 --no-open` and resolves with the child and the page's base address. */
 async function startServer(dir: string): Promise<{ child: ChildProcess; base: string; origin: string; exited: Promise<unknown> }> {
