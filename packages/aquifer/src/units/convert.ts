@@ -86,14 +86,9 @@ export function convertArray(values: ArrayLike<number>, from: string | Unit, to:
   const out = new Float64Array(n);
   const a = source.factor;
   const b = target.factor;
-  if (a === b) {
-    if (values instanceof Float64Array) out.set(values);
-    else for (let i = 0; i < n; i++) out[i] = values[i]!;
-  } else if (values instanceof Float64Array) {
-    for (let i = 0; i < n; i++) out[i] = (values[i]! * a) / b;
-  } else {
-    for (let i = 0; i < n; i++) out[i] = (values[i]! * a) / b;
-  }
+  if (a === b && values instanceof Float64Array) out.set(values);
+  else if (a === b) for (let i = 0; i < n; i++) out[i] = values[i]!;
+  else for (let i = 0; i < n; i++) out[i] = (values[i]! * a) / b;
   return out;
 }
 
