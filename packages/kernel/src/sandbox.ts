@@ -247,6 +247,13 @@ export class Sandbox {
     return out;
   }
 
+  /** A host call that reached the cell's deadline (HostTimeLimitError) stops the cell: the cell cannot catch it. */
+  private stopIfPastDeadline(e: unknown): void {
+    if (!(e instanceof HostTimeLimitError)) return;
+    this.interrupted = true;
+    this.forcedAbort = "time";
+  }
+
   private hostCall(nameH: QuickJSHandle, jsonH: QuickJSHandle, bufferHs: readonly QuickJSHandle[]) {
     const ctx = this.context;
     const guestName = ctx.getString(nameH);
@@ -264,10 +271,7 @@ export class Sandbox {
         throw withTextPlaces(e, typeof checked[0] === "string" ? this.hooks.placeOfText?.(checked[0]) : undefined);
       }
     } catch (e) {
-      if (e instanceof HostTimeLimitError) {
-        this.interrupted = true;
-        this.forcedAbort = "time";
-      }
+      this.stopIfPastDeadline(e);
       return { error: ctx.newError(bridgeErrorMessage(guestName, e)) };
     }
   }
@@ -295,10 +299,7 @@ export class Sandbox {
       if (!column) throw new Error("no such column");
       return this.newWire(column instanceof Float64Array ? column.slice() : column);
     } catch (e) {
-      if (e instanceof HostTimeLimitError) {
-        this.interrupted = true;
-        this.forcedAbort = "time";
-      }
+      this.stopIfPastDeadline(e);
       return { error: ctx.newError(errorMessage(e)) };
     }
   }
